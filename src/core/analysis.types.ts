@@ -1,0 +1,21 @@
+import type { Columns, LabelImage, Rect } from './types';
+import type { Settings } from './settings';
+import type { Tessellation } from './tessellate/types';
+
+/** A JSON-serialisable summary: the keys other tools read are documented in README (summary.json). */
+export type Summary = Record<string, unknown>;
+
+/** Everything one analysis of one image (or point set) produces. */
+export interface Analysis {
+  width: number;
+  height: number;
+  field: Rect;
+  settings: Settings;
+  /** Segmentation labels (walls, bodies); null for a points pattern. */
+  labels: LabelImage | null;
+  /** Per-cell measurement columns, names from the measurement registry (units in the names). */
+  columns: Columns;
+  /** Voronoi/Delaunay of the centroids, clipped to the field. */
+  tessellation: Tessellation;
+  summary: Summary;
+}

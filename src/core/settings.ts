@@ -1,0 +1,174 @@
+/**
+ * The one source of truth for analysis settings: a plain, versioned JSON object with defaults.
+ * The settings used are written beside every result (settings.json), so any figure can be reproduced.
+ */
+import { CalibrationError, SettingsError } from './errors';
+import type { Rect } from './types';
+
+export const SETTINGS_VERSION = 1;
+
+export type PatternKind = 'walls' | 'bodies' | 'points';
+export type ThresholdMethod = 'otsu' | 'adaptive' | 'manual';
+export type EdgeRule = 'exclude' | 'weight';
+
+export interface WallsSettings {
+  /** 'auto' detects whether the walls are darker or lighter than the cells. */
+  polarity: 'auto' | 'dark' | 'light';
+  /** Radius (px) of the background estimate used to flatten uneven illumination; 0 = off, -1 = auto. */
+  flattenRadiusPx: number;
+  /** Gaussian smoothing sigma (px) before thresholding; 0 = off. */
+  smoothSigmaPx: number;
+  threshold: ThresholdMethod;
+  /** Threshold on the 0..255 scale after normalisation, used when threshold = 'manual'. */
+  manualThreshold: number;
+  /** Block size (px, odd) for adaptive thresholding. */
+  adaptiveBlockPx: number;
+  /** Cell interiors are eroded by this many px before they seed the watershed (splits cells joined by gaps in a wall). */
+  seedErodePx: number;
+}
+
+export interface BodiesSettings {
+  /** 'auto': bodies are the minority phase; 'bright' or 'dark' forces it. */
+  polarity: 'auto' | 'bright' | 'dark';
+  smoothSigmaPx: number;
+  threshold: ThresholdMethod;
+  manualThreshold: number;
+  adaptiveBlockPx: number;
+  fillHoles: boolean;
+  /** Split touching bodies by distance-transform markers and watershed. */
+  splitTouching: boolean;
+  /** Two markers closer than this fraction of the local radius are merged (0..1). */
+  splitSensitivity: number;
+}
+
+export interface PointsSettings {
+  /** Units of x, y in a points CSV. */
+  units: 'px' | 'um';
+}
+
+export interface ReferenceSettings {
+  /** Monte Carlo replicates of the random-seeding reference. */
+  replicates: number;
+  seed: number;
+  /** Significance level of the verdict. */
+  alpha: number;
+}
+
+export interface Settings {
+  version: typeof SETTINGS_VERSION;
+  pattern: PatternKind;
+  /** Micrometres per pixel; null = uncalibrated (results in px). A value here wins over the file's tags. */
+  umPerPx: number | null;
+  /** The analysed rectangle in px; null = the whole image. */
+  field: Rect | null;
+  /** Cells smaller than this (px²) are dropped as noise; -1 = auto (from the image size and wall width). */
+  minCellAreaPx: number;
+  edgeRule: EdgeRule;
+  walls: WallsSettings;
+  bodies: BodiesSettings;
+  points: PointsSettings;
+  reference: ReferenceSettings;
+}
+
+export function defaultSettings(): Settings {
+  return {
+    version: SETTINGS_VERSION,
+    pattern: 'walls',
+    umPerPx: null,
+    field: null,
+    minCellAreaPx: -1,
+    edgeRule: 'exclude',
+    walls: {
+      polarity: 'auto',
+      flattenRadiusPx: -1,
+      smoothSigmaPx: 1,
+      threshold: 'otsu',
+      manualThreshold: 128,
+      adaptiveBlockPx: 51,
+      seedErodePx: 1,
+    },
+    bodies: {
+      polarity: 'auto',
+      smoothSigmaPx: 1,
+      threshold: 'otsu',
+      manualThreshold: 128,
+      adaptiveBlockPx: 51,
+      fillHoles: true,
+      splitTouching: true,
+      splitSensitivity: 0.5,
+    },
+    points: { units: 'px' },
+    reference: { replicates: 199, seed: 1, alpha: 0.05 },
+  };
+}
+
+type DeepPartial<T> = { [K in keyof T]?: T[K] extends object | null ? DeepPartial<NonNullable<T[K]>> | T[K] : T[K] };
+export type SettingsInput = DeepPartial<Settings>;
+
+function isObj(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+function merge(base: Record<string, unknown>, over: Record<string, unknown>, path: string): void {
+  for (const [k, v] of Object.entries(over)) {
+    if (v === undefined) continue;
+    if (!(k in base)) throw new SettingsError(`Unknown setting "${path}${k}"; remove it or check its spelling.`);
+    const b = base[k];
+    if (isObj(b) && isObj(v) && k !== 'field') merge(b, v, `${path}${k}.`);
+    else base[k] = v;
+  }
+}
+
+function num(v: unknown, name: string, lo: number, hi: number): void {
+  if (typeof v !== 'number' || !Number.isFinite(v) || v < lo || v > hi) {
+    throw new SettingsError(`Setting ${name} must be a number from ${lo} to ${hi}; got ${JSON.stringify(v)}.`);
+  }
+}
+function oneOf(v: unknown, name: string, options: readonly string[]): void {
+  if (typeof v !== 'string' || !options.includes(v)) {
+    throw new SettingsError(`Setting ${name} must be one of ${options.join(', ')}; got ${JSON.stringify(v)}.`);
+  }
+}
+
+/** Defaults overlaid with `input`, validated. Throws SettingsError naming the bad setting. */
+export function resolveSettings(input: SettingsInput = {}): Settings {
+  const s = defaultSettings();
+  if (!isObj(input)) throw new SettingsError('Settings must be a JSON object.');
+  if (input.version !== undefined && input.version !== SETTINGS_VERSION) {
+    throw new SettingsError(`Settings version ${String(input.version)} is not supported; this Tessellab reads version ${SETTINGS_VERSION}.`);
+  }
+  merge(s as unknown as Record<string, unknown>, input as Record<string, unknown>, '');
+  oneOf(s.pattern, 'pattern', ['walls', 'bodies', 'points']);
+  if (s.umPerPx !== null) {
+    if (typeof s.umPerPx !== 'number' || !Number.isFinite(s.umPerPx) || s.umPerPx <= 0) {
+      throw new CalibrationError(`Pixel size must be a positive number of µm per pixel; got ${JSON.stringify(s.umPerPx)}.`);
+    }
+  }
+  if (s.field !== null) {
+    const f = s.field;
+    if (!isObj(f) || ![f.x0, f.y0, f.x1, f.y1].every((v) => typeof v === 'number' && Number.isFinite(v)) || f.x1 <= f.x0 || f.y1 <= f.y0) {
+      throw new SettingsError('Setting field must be {x0, y0, x1, y1} in px with x1 > x0 and y1 > y0.');
+    }
+  }
+  num(s.minCellAreaPx, 'minCellAreaPx', -1, 1e9);
+  oneOf(s.edgeRule, 'edgeRule', ['exclude', 'weight']);
+  oneOf(s.walls.polarity, 'walls.polarity', ['auto', 'dark', 'light']);
+  num(s.walls.flattenRadiusPx, 'walls.flattenRadiusPx', -1, 10000);
+  num(s.walls.smoothSigmaPx, 'walls.smoothSigmaPx', 0, 50);
+  oneOf(s.walls.threshold, 'walls.threshold', ['otsu', 'adaptive', 'manual']);
+  num(s.walls.manualThreshold, 'walls.manualThreshold', 0, 255);
+  num(s.walls.adaptiveBlockPx, 'walls.adaptiveBlockPx', 3, 2001);
+  num(s.walls.seedErodePx, 'walls.seedErodePx', 0, 50);
+  oneOf(s.bodies.polarity, 'bodies.polarity', ['auto', 'bright', 'dark']);
+  num(s.bodies.smoothSigmaPx, 'bodies.smoothSigmaPx', 0, 50);
+  oneOf(s.bodies.threshold, 'bodies.threshold', ['otsu', 'adaptive', 'manual']);
+  num(s.bodies.manualThreshold, 'bodies.manualThreshold', 0, 255);
+  num(s.bodies.adaptiveBlockPx, 'bodies.adaptiveBlockPx', 3, 2001);
+  num(s.bodies.splitSensitivity, 'bodies.splitSensitivity', 0, 1);
+  oneOf(s.points.units, 'points.units', ['px', 'um']);
+  num(s.reference.replicates, 'reference.replicates', 0, 100000);
+  num(s.reference.seed, 'reference.seed', 0, 2 ** 32 - 1);
+  num(s.reference.alpha, 'reference.alpha', 1e-6, 0.5);
+  return s;
+}
+
