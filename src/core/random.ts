@@ -1,0 +1,55 @@
+/**
+ * Seeded pseudo-random numbers. Every random draw in Tessellab (Monte Carlo reference, demo generator)
+ * goes through here, so the same seed gives the same numbers on every machine.
+ */
+
+/** A generator of uniform numbers in [0, 1). */
+export interface Rng {
+  (): number;
+}
+
+/**
+ * Mulberry32: a small 32-bit generator with a full 2^32 period, adequate for Monte Carlo of this size.
+ * (T. Ettinger, 2017, public-domain reference implementation; trade.)
+ */
+export function mulberry32(seed: number): Rng {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** A standard normal deviate by the Box–Muller transform. */
+export function normal(rng: Rng): number {
+  let u = 0;
+  while (u === 0) u = rng();
+  const v = rng();
+  return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
+}
+
+/** A Poisson deviate with mean `mean` (Knuth's method for small means, normal approximation above 500). */
+export function poisson(rng: Rng, mean: number): number {
+  if (mean > 500) return Math.max(0, Math.round(mean + Math.sqrt(mean) * normal(rng)));
+  const L = Math.exp(-mean);
+  let k = 0;
+  let p = 1;
+  do {
+    k++;
+    p *= rng();
+  } while (p > L);
+  return k - 1;
+}
+
+/** Derives an independent seed for replicate `i` of a run seeded with `seed`. */
+export function subSeed(seed: number, i: number): number {
+  let h = (seed ^ 0x9e3779b9) >>> 0;
+  h = Math.imul(h ^ (i + 0x7f4a7c15), 0x85ebca6b) >>> 0;
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35) >>> 0;
+  h ^= h >>> 16;
+  return h >>> 0;
+}
