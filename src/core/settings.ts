@@ -54,6 +54,34 @@ export interface ReferenceSettings {
   alpha: number;
 }
 
+export interface GrainSettings {
+  /** Planimetric test figure: a circle or a rectangle centred in the field. */
+  testShape: 'circle' | 'rectangle';
+  /** Size of the test figure as a fraction of the largest that fits the field (0..1]. */
+  testSizeFraction: number;
+  /** Subtract one from the Jeffries count (the unbiased correction). */
+  unbiasedCorrection: boolean;
+  /** Angles (degrees) of the parallel test-line sets of the intercept method. */
+  lineAngles: number[];
+  /** Number of parallel lines per angle. */
+  linesPerAngle: number;
+  /** Number of concentric test circles of the intercept method. */
+  circles: number;
+}
+
+export interface KineticsSettings {
+  /** How the transformed phase is separated: Otsu on the reference frame, or a manual threshold (0..255). */
+  threshold: 'otsu' | 'manual';
+  manualThreshold: number;
+  /** Which phase is transformed: the brighter or the darker one; 'auto' = the one that grows. */
+  phase: 'auto' | 'bright' | 'dark';
+  /** Frames with fraction in (fitMin, fitMax) enter the Avrami plot fit. */
+  fitMin: number;
+  fitMax: number;
+  /** Fit an incubation time t0 in the nonlinear fit. */
+  incubation: boolean;
+}
+
 export interface Settings {
   version: typeof SETTINGS_VERSION;
   pattern: PatternKind;
@@ -68,6 +96,8 @@ export interface Settings {
   bodies: BodiesSettings;
   points: PointsSettings;
   reference: ReferenceSettings;
+  grain: GrainSettings;
+  kinetics: KineticsSettings;
 }
 
 export function defaultSettings(): Settings {
@@ -99,6 +129,15 @@ export function defaultSettings(): Settings {
     },
     points: { units: 'px' },
     reference: { replicates: 199, seed: 1, alpha: 0.05 },
+    grain: {
+      testShape: 'circle',
+      testSizeFraction: 1,
+      unbiasedCorrection: false,
+      lineAngles: [0, 45, 90, 135],
+      linesPerAngle: 5,
+      circles: 3,
+    },
+    kinetics: { threshold: 'otsu', manualThreshold: 128, phase: 'auto', fitMin: 0.02, fitMax: 0.98, incubation: false },
   };
 }
 
@@ -169,6 +208,19 @@ export function resolveSettings(input: SettingsInput = {}): Settings {
   num(s.reference.replicates, 'reference.replicates', 0, 100000);
   num(s.reference.seed, 'reference.seed', 0, 2 ** 32 - 1);
   num(s.reference.alpha, 'reference.alpha', 1e-6, 0.5);
+  oneOf(s.grain.testShape, 'grain.testShape', ['circle', 'rectangle']);
+  num(s.grain.testSizeFraction, 'grain.testSizeFraction', 0.05, 1);
+  if (typeof s.grain.unbiasedCorrection !== 'boolean') throw new SettingsError('Setting grain.unbiasedCorrection must be true or false.');
+  if (!Array.isArray(s.grain.lineAngles) || s.grain.lineAngles.length === 0) throw new SettingsError('Setting grain.lineAngles must be a non-empty list of angles in degrees.');
+  s.grain.lineAngles.forEach((a, i) => num(a, `grain.lineAngles[${i}]`, -360, 360));
+  num(s.grain.linesPerAngle, 'grain.linesPerAngle', 1, 1000);
+  num(s.grain.circles, 'grain.circles', 0, 100);
+  oneOf(s.kinetics.threshold, 'kinetics.threshold', ['otsu', 'manual']);
+  num(s.kinetics.manualThreshold, 'kinetics.manualThreshold', 0, 255);
+  oneOf(s.kinetics.phase, 'kinetics.phase', ['auto', 'bright', 'dark']);
+  num(s.kinetics.fitMin, 'kinetics.fitMin', 0, 1);
+  num(s.kinetics.fitMax, 'kinetics.fitMax', 0, 1);
+  if (s.kinetics.fitMin >= s.kinetics.fitMax) throw new SettingsError('Setting kinetics.fitMin must be below kinetics.fitMax.');
   return s;
 }
 
