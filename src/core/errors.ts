@@ -39,6 +39,10 @@ export class SettingsError extends TessellabError {
 export class CalibrationError extends TessellabError {
   constructor(message: string) { super('Calibration', message); }
 }
+/** A label edit (merge, split, remove) that cannot be carried out as asked. */
+export class EditError extends TessellabError {
+  constructor(message: string) { super('Edit', message); }
+}
 export class CancelledError extends TessellabError {
   constructor(message = 'The analysis was cancelled.') { super('Cancelled', message); }
 }
