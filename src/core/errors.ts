@@ -43,6 +43,10 @@ export class CalibrationError extends TessellabError {
 export class EditError extends TessellabError {
   constructor(message: string) { super('Edit', message); }
 }
+/** An image series for kinetics that cannot be analysed as given (too few frames, times, sizes, fractions). */
+export class SeriesError extends TessellabError {
+  constructor(message: string) { super('Series', message); }
+}
 export class CancelledError extends TessellabError {
   constructor(message = 'The analysis was cancelled.') { super('Cancelled', message); }
 }
