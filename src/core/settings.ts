@@ -80,6 +80,8 @@ export interface KineticsSettings {
   fitMax: number;
   /** Fit an incubation time t0 in the nonlinear fit. */
   incubation: boolean;
+  /** Which fit gives the reported n, k, t½: least squares on f directly, or the straight line of the Avrami plot. */
+  fitMethod: 'nonlinear' | 'avrami-plot';
 }
 
 export interface Settings {
@@ -137,7 +139,7 @@ export function defaultSettings(): Settings {
       linesPerAngle: 5,
       circles: 3,
     },
-    kinetics: { threshold: 'otsu', manualThreshold: 128, phase: 'auto', fitMin: 0.02, fitMax: 0.98, incubation: false },
+    kinetics: { threshold: 'otsu', manualThreshold: 128, phase: 'auto', fitMin: 0.02, fitMax: 0.98, incubation: false, fitMethod: 'nonlinear' },
   };
 }
 
@@ -220,6 +222,8 @@ export function resolveSettings(input: SettingsInput = {}): Settings {
   oneOf(s.kinetics.phase, 'kinetics.phase', ['auto', 'bright', 'dark']);
   num(s.kinetics.fitMin, 'kinetics.fitMin', 0, 1);
   num(s.kinetics.fitMax, 'kinetics.fitMax', 0, 1);
+  if (typeof s.kinetics.incubation !== 'boolean') throw new SettingsError('Setting kinetics.incubation must be true or false.');
+  oneOf(s.kinetics.fitMethod, 'kinetics.fitMethod', ['nonlinear', 'avrami-plot']);
   if (s.kinetics.fitMin >= s.kinetics.fitMax) throw new SettingsError('Setting kinetics.fitMin must be below kinetics.fitMax.');
   return s;
 }
