@@ -30,6 +30,10 @@ export class NoCellsError extends TessellabError {
 export class TooFewCellsError extends TessellabError {
   constructor(message: string) { super('TooFewCells', message); }
 }
+/** A point set that cannot be tessellated: all on one line, coincident points, or points off the field. */
+export class DegeneratePointsError extends TessellabError {
+  constructor(message: string) { super('DegeneratePoints', message); }
+}
 export class CsvError extends TessellabError {
   constructor(message: string) { super('Csv', message); }
 }
