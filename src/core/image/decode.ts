@@ -1,0 +1,62 @@
+import type { DecodedImage, GreyImage } from '../types';
+import { toGrey } from './grey';
+import { decodeJpegRaster } from './jpeg';
+import { MAX_PIXELS } from './limits';
+import { decodePngRaster } from './png';
+import { detectFormat } from './sniff';
+import { decodeTiffRaster } from './tiff';
+
+export { MAX_PIXELS } from './limits';
+
+/** Options of {@link decodeImage}. */
+export interface DecodeOptions {
+  /** File name, put at the start of every error message. */
+  name?: string;
+  /** Limit on width x height of one page, in pixels; default {@link MAX_PIXELS} (268 megapixels). */
+  maxPixels?: number;
+}
+
+/**
+ * Decodes a PNG, JPEG or TIFF file into grey pages, detecting the format from the bytes' magic numbers
+ * (never from the file name).
+ *
+ * - PNG (fast-png): grey, grey + alpha, RGB, RGBA at 8 or 16 bit, palette, 1/2/4-bit grey (scaled to 0..255).
+ *   Pixel size from the pHYs chunk when its unit is the metre: µm/px = 10^6 / (pixels per metre).
+ * - JPEG (jpeg-js): 8-bit grey or colour (baseline or progressive).
+ * - TIFF (geotiff): 8 or 16 bit unsigned, grey / RGB / palette, every page (IFD) one entry of `pages`, strips
+ *   or tiles, uncompressed / LZW / Deflate / PackBits. Pixel size from OME-XML PhysicalSizeX in the
+ *   ImageDescription when present, else from XResolution with ResolutionUnit 2 (inch) or 3 (cm).
+ *
+ * Colour becomes grey with the ITU-R BT.601 luma weights ({@link toGrey}); alpha is ignored. 16-bit samples
+ * stay 16-bit (Uint16Array, bitDepth 16).
+ * The header's width x height is checked before any pixel is decoded, so an oversized file allocates nothing.
+ *
+ * `umPerPx` is the pixel size in x. When the file gives x and y sizes that differ by more than 1 %
+ * (non-square pixels) the x size is still returned and decoding does not fail; lengths measured along y
+ * would then be off by that ratio, which the caller may report.
+ *
+ * @param bytes - the whole file
+ * @param opts - `name` for messages; `maxPixels` to lower or raise the size limit
+ * @returns the grey pages, the format, whether the file was colour, and the pixel size in µm (or null)
+ * @throws ImageDecodeError - empty, text, unrecognised, truncated or damaged file
+ * @throws UnsupportedFormatError - another image format, or a TIFF/JPEG/PNG variant not read (the message
+ *   names it, e.g. the TIFF compression code, float or 32-bit samples)
+ * @throws ImageTooSmallError - a side below 16 px
+ * @throws ImageTooLargeError - width x height above the limit
+ */
+export async function decodeImage(bytes: Uint8Array, opts: DecodeOptions = {}): Promise<DecodedImage> {
+  const { name } = opts;
+  const maxPixels = opts.maxPixels ?? MAX_PIXELS;
+  const format = detectFormat(bytes, name);
+  if (format === 'png') {
+    const r = decodePngRaster(bytes, maxPixels, name);
+    return { format, pages: [toGrey(r.image)], umPerPx: r.umPerPx, wasColour: r.colour };
+  }
+  if (format === 'jpeg') {
+    const r = decodeJpegRaster(bytes, maxPixels, name);
+    return { format, pages: [toGrey(r.image)], umPerPx: null, wasColour: r.colour };
+  }
+  const r = await decodeTiffRaster(bytes, maxPixels, name);
+  const pages: GreyImage[] = r.pages.map(toGrey);
+  return { format, pages, umPerPx: r.umPerPx, wasColour: r.colour };
+}
