@@ -42,13 +42,14 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
   let at = 2;
   for (;;) {
     while (at < bytes.length && bytes[at] === 0xff && bytes[at + 1] === 0xff) at++; // fill bytes
-    if (at + 4 > bytes.length) throw truncated();
+    if (at + 2 > bytes.length) throw truncated();
     if (bytes[at] !== 0xff) {
       throw new ImageDecodeError(`${p}the JPEG file is damaged (a marker is missing at byte ${at}); re-save it`);
     }
     const marker = bytes[at + 1];
     if (marker === 0xd9) break;
     if (marker === 0x01 || (marker >= 0xd0 && marker <= 0xd7)) { at += 2; continue; }
+    if (at + 4 > bytes.length) throw truncated();
     const length = (bytes[at + 2] << 8) | bytes[at + 3];
     if (at + 2 + length > bytes.length) throw truncated();
     if (isStartOfFrame(marker) && header === null) {
