@@ -1,0 +1,107 @@
+/**
+ * Tiny files built byte by byte for the bad-input tests, laid out as the PNG specification (W3C 2003),
+ * TIFF 6.0 (Adobe 1992) and JPEG (ITU-T T.81) describe them.
+ */
+
+const CRC_TABLE = (() => {
+  const t = new Uint32Array(256);
+  for (let n = 0; n < 256; n++) {
+    let c = n;
+    for (let k = 0; k < 8; k++) c = c & 1 ? 0xedb88320 ^ (c >>> 1) : c >>> 1;
+    t[n] = c >>> 0;
+  }
+  return t;
+})();
+
+function crc32(bytes: Uint8Array): number {
+  let c = 0xffffffff;
+  for (const b of bytes) c = CRC_TABLE[(c ^ b) & 0xff] ^ (c >>> 8);
+  return (c ^ 0xffffffff) >>> 0;
+}
+
+function pngChunk(type: string, data: Uint8Array): Uint8Array {
+  const out = new Uint8Array(12 + data.length);
+  const v = new DataView(out.buffer);
+  v.setUint32(0, data.length);
+  for (let i = 0; i < 4; i++) out[4 + i] = type.charCodeAt(i);
+  out.set(data, 8);
+  v.setUint32(8 + data.length, crc32(out.subarray(4, 8 + data.length)));
+  return out;
+}
+
+function concat(parts: Uint8Array[]): Uint8Array {
+  const out = new Uint8Array(parts.reduce((s, p) => s + p.length, 0));
+  let at = 0;
+  for (const p of parts) { out.set(p, at); at += p.length; }
+  return out;
+}
+
+/** A PNG that is only a signature, an IHDR claiming width x height 8-bit grey, and IEND: no pixel data. */
+export function pngHeaderOnly(width: number, height: number): Uint8Array {
+  const ihdr = new Uint8Array(13);
+  const v = new DataView(ihdr.buffer);
+  v.setUint32(0, width);
+  v.setUint32(4, height);
+  ihdr[8] = 8; // bit depth
+  ihdr[9] = 0; // grey
+  return concat([
+    new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    pngChunk('IHDR', ihdr),
+    pngChunk('IEND', new Uint8Array(0)),
+  ]);
+}
+
+/** A baseline JPEG frame header claiming width x height, one grey component, an empty scan and EOI. */
+export function jpegHeaderOnly(width: number, height: number): Uint8Array {
+  return new Uint8Array([
+    0xff, 0xd8,
+    0xff, 0xc0, 0x00, 0x0b, 0x08, height >> 8, height & 0xff, width >> 8, width & 0xff, 0x01, 0x01, 0x11, 0x00,
+    0xff, 0xda, 0x00, 0x08, 0x01, 0x01, 0x00, 0x00, 0x3f, 0x00,
+    0x00, 0x00,
+    0xff, 0xd9,
+  ]);
+}
+
+export interface TiffSpec {
+  width: number;
+  height: number;
+  compression?: number;
+  /** Pixel data, 8-bit grey, one strip. */
+  pixels: Uint8Array;
+  /** Cut the file to this many bytes (to make a truncated file). */
+  cutTo?: number;
+}
+
+/** A little-endian, single-strip, 8-bit grey TIFF with its IFD before the pixel data. */
+export function tiff(spec: TiffSpec): Uint8Array {
+  const entries: [number, number, number][] = [ // tag, type (3 SHORT, 4 LONG), value
+    [256, 4, spec.width],
+    [257, 4, spec.height],
+    [258, 3, 8],
+    [259, 3, spec.compression ?? 1],
+    [262, 3, 1],
+    [273, 4, 0], // strip offset, filled below
+    [277, 3, 1],
+    [278, 4, spec.height],
+    [279, 4, spec.pixels.length],
+  ];
+  const ifdSize = 2 + entries.length * 12 + 4;
+  const dataAt = 8 + ifdSize;
+  entries[5][2] = dataAt;
+  const out = new Uint8Array(dataAt + spec.pixels.length);
+  const v = new DataView(out.buffer);
+  out.set([0x49, 0x49, 0x2a, 0x00]);
+  v.setUint32(4, 8, true);
+  v.setUint16(8, entries.length, true);
+  entries.forEach(([tag, type, value], i) => {
+    const at = 10 + i * 12;
+    v.setUint16(at, tag, true);
+    v.setUint16(at + 2, type, true);
+    v.setUint32(at + 4, 1, true);
+    if (type === 3) v.setUint16(at + 8, value, true);
+    else v.setUint32(at + 8, value, true);
+  });
+  v.setUint32(10 + entries.length * 12, 0, true);
+  out.set(spec.pixels, dataAt);
+  return spec.cutTo === undefined ? out : out.slice(0, spec.cutTo);
+}
