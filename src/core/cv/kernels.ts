@@ -1,0 +1,193 @@
+/**
+ * The opencv.js kernels the segmenters use, each taking and returning typed arrays so that no Mat escapes
+ * this folder. Every Mat is freed in a `finally` (withMats).
+ */
+import type { CV } from './index';
+import { matFromArray, matFromGrey, withMats } from './mats';
+import type { GreyImage } from '../types';
+
+export interface PrepareOptions {
+  /** Radius (px) of the illumination estimate; 0 = no flattening. */
+  flattenRadiusPx: number;
+  /** Gaussian sigma (px); 0 = no smoothing. */
+  smoothSigmaPx: number;
+}
+
+/**
+ * Flattens uneven illumination, smooths and stretches an image to 8 bits, keeping full (16-bit) precision
+ * until the final conversion.
+ *
+ * Flattening divides by a background estimate: a Gaussian blur of sigma = radius/2, computed on a copy
+ * downsampled so the kernel stays about 8 px wide (illumination is smooth, so nothing is lost) and scaled
+ * back up. Division, not subtraction, because illumination multiplies reflectance/transmittance.
+ * The stretch maps the 0.1 and 99.9 percentiles to 0 and 255 (trade).
+ *
+ * @returns 8-bit smoothed image, row-major, same size as the input.
+ */
+export function prepareGrey(cv: CV, img: GreyImage, o: PrepareOptions): Uint8Array {
+  return withMats((track) => {
+    const { width: w, height: h } = img;
+    const src = track(matFromGrey(cv, img));
+    const f = track(new cv.Mat());
+    src.convertTo(f, cv.CV_32F);
+    if (o.flattenRadiusPx > 0) {
+      const sigma = o.flattenRadiusPx / 2;
+      const factor = Math.max(1, Math.floor(sigma / 8));
+      const sw = Math.max(1, Math.round(w / factor));
+      const sh = Math.max(1, Math.round(h / factor));
+      const small = track(new cv.Mat());
+      cv.resize(f, small, new cv.Size(sw, sh), 0, 0, cv.INTER_AREA);
+      const sb = track(new cv.Mat());
+      const ss = sigma / factor;
+      const k = 2 * Math.ceil(3 * ss) + 1;
+      cv.GaussianBlur(small, sb, new cv.Size(k, k), ss, ss, cv.BORDER_REFLECT);
+      const bg = track(new cv.Mat());
+      cv.resize(sb, bg, new cv.Size(w, h), 0, 0, cv.INTER_LINEAR);
+      const mean = cv.mean(bg)[0] as number;
+      const eps = track(new cv.Mat(h, w, cv.CV_32F, new cv.Scalar(1e-3)));
+      cv.max(bg, eps, bg);
+      cv.divide(f, bg, f, mean);
+    }
+    if (o.smoothSigmaPx > 0) {
+      const k = 2 * Math.ceil(3 * o.smoothSigmaPx) + 1;
+      cv.GaussianBlur(f, f, new cv.Size(k, k), o.smoothSigmaPx, o.smoothSigmaPx, cv.BORDER_REFLECT);
+    }
+    const data = f.data32F as Float32Array;
+    const [lo, hi] = percentiles(data, 0.001, 0.999);
+    const out = new Uint8Array(w * h);
+    const scale = hi > lo ? 255 / (hi - lo) : 0;
+    for (let i = 0; i < out.length; i++) {
+      const v = (data[i]! - lo) * scale;
+      out[i] = v < 0 ? 0 : v > 255 ? 255 : (v + 0.5) | 0;
+    }
+    return out;
+  });
+}
+
+/** Approximate percentiles of a float array through a 4096-bin histogram between min and max. */
+function percentiles(data: Float32Array, pLo: number, pHi: number): [number, number] {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let i = 0; i < data.length; i++) {
+    const v = data[i]!;
+    if (v < min) min = v;
+    if (v > max) max = v;
+  }
+  if (!(max > min)) return [min, max];
+  const bins = 4096;
+  const hist = new Float64Array(bins);
+  const s = (bins - 1) / (max - min);
+  for (let i = 0; i < data.length; i++) hist[((data[i]! - min) * s) | 0]!++;
+  const n = data.length;
+  let acc = 0;
+  let lo = min;
+  let hi = max;
+  let loSet = false;
+  for (let b = 0; b < bins; b++) {
+    acc += hist[b]!;
+    if (!loSet && acc >= pLo * n) {
+      lo = min + b / s;
+      loSet = true;
+    }
+    if (acc >= pHi * n) {
+      hi = min + (b + 1) / s;
+      break;
+    }
+  }
+  return [lo, hi];
+}
+
+/**
+ * Otsu's threshold of an 8-bit image: the level that maximises the between-class variance
+ * (Otsu 1979, IEEE Trans. SMC 9:62). Pixels > t are the bright class.
+ */
+export function otsuThreshold(cv: CV, img8: Uint8Array, width: number, height: number): number {
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, img8));
+    const dst = track(new cv.Mat());
+    return cv.threshold(src, dst, 0, 255, cv.THRESH_BINARY | cv.THRESH_OTSU) as number;
+  });
+}
+
+/**
+ * Binary mask (1 = bright class) by a global threshold (pixels > t) or by a local-mean adaptive
+ * threshold over a block of `blockPx` (pixel brighter than its neighbourhood mean).
+ */
+export function thresholdMask(
+  cv: CV,
+  img8: Uint8Array,
+  width: number,
+  height: number,
+  method: { kind: 'global'; level: number } | { kind: 'adaptive'; blockPx: number },
+): Uint8Array {
+  if (method.kind === 'global') {
+    const out = new Uint8Array(img8.length);
+    const t = method.level;
+    for (let i = 0; i < out.length; i++) out[i] = img8[i]! > t ? 1 : 0;
+    return out;
+  }
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, img8));
+    const dst = track(new cv.Mat());
+    const block = method.blockPx % 2 === 1 ? method.blockPx : method.blockPx + 1;
+    cv.adaptiveThreshold(src, dst, 1, cv.ADAPTIVE_THRESH_MEAN_C, cv.THRESH_BINARY, block, 0);
+    return new Uint8Array(dst.data as Uint8Array);
+  });
+}
+
+/** Erodes a 0/1 mask with a disc-like (elliptic) element of radius r px; r = 0 returns a copy. */
+export function erodeMask(cv: CV, mask: Uint8Array, width: number, height: number, r: number): Uint8Array {
+  if (r <= 0) return mask.slice();
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
+    const dst = track(new cv.Mat());
+    const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * r + 1, 2 * r + 1)));
+    cv.erode(src, dst, k, new cv.Point(-1, -1), 1, cv.BORDER_CONSTANT, new cv.Scalar(1));
+    return new Uint8Array(dst.data as Uint8Array);
+  });
+}
+
+/**
+ * Connected components of a 0/1 mask (4- or 8-connectivity). Returns labels (0 = background, 1..count)
+ * and the pixel count of each label (index = label).
+ */
+export function connectedComponents(
+  cv: CV,
+  mask: Uint8Array,
+  width: number,
+  height: number,
+  connectivity: 4 | 8 = 4,
+): { labels: Int32Array; count: number; areas: Int32Array } {
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
+    const labels = track(new cv.Mat());
+    const stats = track(new cv.Mat());
+    const cents = track(new cv.Mat());
+    const n = cv.connectedComponentsWithStats(src, labels, stats, cents, connectivity, cv.CV_32S) as number;
+    const s = stats.data32S as Int32Array;
+    const areas = new Int32Array(n);
+    for (let i = 0; i < n; i++) areas[i] = s[i * 5 + 4]!;
+    return { labels: new Int32Array(labels.data32S as Int32Array), count: n - 1, areas };
+  });
+}
+
+/** Euclidean distance (px) of each mask pixel to the nearest 0 pixel (opencv's exact-ish 5x5 mask). */
+export function distanceTransform(cv: CV, mask: Uint8Array, width: number, height: number): Float32Array {
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
+    const dst = track(new cv.Mat());
+    cv.distanceTransform(src, dst, cv.DIST_L2, 5);
+    return new Float32Array(dst.data32F as Float32Array);
+  });
+}
+
+/** Grey dilation (maximum filter) of a float image over a disc of radius r px. */
+export function maxFilter(cv: CV, img: Float32Array, width: number, height: number, r: number): Float32Array {
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_32FC1, img));
+    const dst = track(new cv.Mat());
+    const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * r + 1, 2 * r + 1)));
+    cv.dilate(src, dst, k, new cv.Point(-1, -1), 1, cv.BORDER_REPLICATE);
+    return new Float32Array(dst.data32F as Float32Array);
+  });
+}

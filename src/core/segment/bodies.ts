@@ -1,0 +1,115 @@
+/**
+ * Bodies pattern: separate or touching objects on a background (nuclei, bubbles, particles).
+ * Validate -> convert -> kernels -> label image (0 = background).
+ *
+ * 1. Smooth and stretch (no flattening by default: bodies can be large relative to the field).
+ * 2. Threshold (Otsu by default). The background is the class that holds most of the image border,
+ *    unless the polarity is set.
+ * 3. Fill holes: background components that do not reach the border become body.
+ * 4. Split touching bodies: markers are the peaks of the distance transform (pixels equal to the maximum
+ *    over a disc of radius splitSensitivity·R, R the median body radius), then a watershed on the inverted
+ *    distance inside the body mask (Beucher & Lantuéjoul 1979; trade).
+ */
+import { connectedComponents, distanceTransform, maxFilter, otsuThreshold, prepareGrey, thresholdMask } from '../cv/kernels';
+import type { CV } from '../cv/index';
+import { NoCellsError } from '../errors';
+import type { Settings } from '../settings';
+import type { GreyImage } from '../types';
+import { floodFromMarkers, relabelSequential } from './flood';
+import type { SegmentResult } from './walls';
+
+/** Segments a bodies pattern. */
+export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): SegmentResult {
+  const { width: w, height: h } = img;
+  const s = settings.bodies;
+  const prepared = prepareGrey(cv, img, { flattenRadiusPx: 0, smoothSigmaPx: s.smoothSigmaPx });
+  let threshold: number;
+  let mask: Uint8Array;
+  if (s.threshold === 'adaptive') {
+    threshold = -1;
+    mask = thresholdMask(cv, prepared, w, h, { kind: 'adaptive', blockPx: s.adaptiveBlockPx });
+  } else {
+    threshold = s.threshold === 'manual' ? s.manualThreshold : otsuThreshold(cv, prepared, w, h);
+    mask = thresholdMask(cv, prepared, w, h, { kind: 'global', level: threshold });
+  }
+  let total = 0;
+  for (let i = 0; i < mask.length; i++) total += mask[i]!;
+  if (total === 0 || total === mask.length) {
+    throw new NoCellsError('No bodies found: the image is uniform (nothing to threshold); check that this is the right image, or set a manual threshold.');
+  }
+  let polarity = s.polarity;
+  if (polarity === 'auto') {
+    let border = 0;
+    let bright = 0;
+    for (let x = 0; x < w; x++) (bright += mask[x]! + mask[(h - 1) * w + x]!), (border += 2);
+    for (let y = 1; y < h - 1; y++) (bright += mask[y * w]! + mask[y * w + w - 1]!), (border += 2);
+    polarity = bright > border / 2 ? 'dark' : 'bright';
+  }
+  if (polarity === 'dark') for (let i = 0; i < mask.length; i++) mask[i] = 1 - mask[i]!;
+  if (s.fillHoles) fillHoles(cv, mask, w, h);
+
+  const minArea = settings.minCellAreaPx < 0 ? 9 : settings.minCellAreaPx;
+  let labels: Int32Array;
+  let maxLabel: number;
+  if (s.splitTouching) {
+    const dist = distanceTransform(cv, mask, w, h);
+    const blobs = connectedComponents(cv, mask, w, h, 8);
+    // Median body radius from the per-blob maximum of the distance.
+    const peak = new Float32Array(blobs.count + 1);
+    for (let i = 0; i < dist.length; i++) {
+      const l = blobs.labels[i]!;
+      if (l > 0 && dist[i]! > peak[l]!) peak[l] = dist[i]!;
+    }
+    const radii = Array.from(peak.subarray(1)).filter((r) => r > 0).sort((a, b) => a - b);
+    const R = radii.length ? radii[radii.length >> 1]! : 1;
+    const r = Math.max(1, Math.round(s.splitSensitivity * R));
+    const dil = maxFilter(cv, dist, w, h, r);
+    const peaks = new Uint8Array(w * h);
+    const floor = Math.max(1, 0.25 * R);
+    for (let i = 0; i < peaks.length; i++) if (dist[i]! >= floor && dist[i]! >= dil[i]! - 1e-4) peaks[i] = 1;
+    const markers = connectedComponents(cv, peaks, w, h, 8);
+    labels = markers.labels;
+    maxLabel = markers.count;
+    // Small blobs without a peak above the floor still get one marker at their maximum.
+    const hasMarker = new Uint8Array(blobs.count + 1);
+    for (let i = 0; i < labels.length; i++) if (labels[i]! > 0) hasMarker[blobs.labels[i]!] = 1;
+    for (let i = 0; i < labels.length; i++) {
+      const b = blobs.labels[i]!;
+      if (b > 0 && !hasMarker[b] && dist[i]! >= peak[b]! - 1e-4) {
+        labels[i] = ++maxLabel;
+        hasMarker[b] = 1;
+      }
+    }
+    let dmax = 0;
+    for (let i = 0; i < dist.length; i++) if (dist[i]! > dmax) dmax = dist[i]!;
+    const relief = new Uint8Array(w * h);
+    const k = dmax > 0 ? 255 / dmax : 0;
+    for (let i = 0; i < relief.length; i++) relief[i] = 255 - Math.round(dist[i]! * k);
+    floodFromMarkers(labels, relief, w, h, mask);
+  } else {
+    const cc = connectedComponents(cv, mask, w, h, 8);
+    labels = cc.labels;
+    maxLabel = cc.count;
+  }
+  // Drop bodies below the minimum area.
+  const area = new Int32Array(maxLabel + 1);
+  for (let i = 0; i < labels.length; i++) area[labels[i]!]!++;
+  for (let i = 0; i < labels.length; i++) if (labels[i]! > 0 && area[labels[i]!]! < minArea) labels[i] = 0;
+  const count = relabelSequential(labels, maxLabel);
+  if (count === 0) throw new NoCellsError(`No bodies found larger than the minimum area of ${minArea} px²; lower the minimum cell area or check the threshold.`);
+  return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
+}
+
+/** Sets to 1 every 0-region of the mask that does not reach the image border. */
+function fillHoles(cv: CV, mask: Uint8Array, w: number, h: number): void {
+  const inv = new Uint8Array(mask.length);
+  for (let i = 0; i < mask.length; i++) inv[i] = 1 - mask[i]!;
+  const cc = connectedComponents(cv, inv, w, h, 4);
+  const outer = new Uint8Array(cc.count + 1);
+  for (let x = 0; x < w; x++) (outer[cc.labels[x]!] = 1), (outer[cc.labels[(h - 1) * w + x]!] = 1);
+  for (let y = 0; y < h; y++) (outer[cc.labels[y * w]!] = 1), (outer[cc.labels[y * w + w - 1]!] = 1);
+  for (let i = 0; i < mask.length; i++) {
+    const l = cc.labels[i]!;
+    if (l > 0 && !outer[l]) mask[i] = 1;
+  }
+}

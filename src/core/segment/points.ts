@@ -1,0 +1,79 @@
+/**
+ * Points pattern: centroids (or events) read from a CSV of x, y. No image needed.
+ */
+import Papa from 'papaparse';
+import { CsvError } from '../errors';
+
+export interface PointsCsv {
+  /** Interleaved x, y, in the units of the file. */
+  points: Float64Array;
+  count: number;
+  /** Names of the x and y columns used ('' when the file has no header). */
+  xColumn: string;
+  yColumn: string;
+}
+
+const X_NAMES = ['x', 'x_px', 'x_um', 'cx', 'centroid_x', 'xpos', 'x (px)', 'x (um)', 'x (µm)'];
+const Y_NAMES = ['y', 'y_px', 'y_um', 'cy', 'centroid_y', 'ypos', 'y (px)', 'y (um)', 'y (µm)'];
+
+/**
+ * Parses a CSV of points. With a header, the x and y columns are found by name (x, x_px, x_um, ...);
+ * without one, the first two columns are x and y. Blank lines are skipped. Every other line must hold
+ * two finite numbers, or a CsvError names the line.
+ *
+ * @param text the file's text
+ * @param opts.name file name for messages
+ */
+export function parsePointsCsv(text: string, opts: { name?: string } = {}): PointsCsv {
+  const where = opts.name ? `${opts.name}: ` : '';
+  if (text.trim().length === 0) throw new CsvError(`${where}the points file is empty; it needs one x,y pair per line.`);
+  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy', delimitersToGuess: [',', '\t', ';', ' '] });
+  const rows = parsed.data;
+  if (rows.length === 0) throw new CsvError(`${where}the points file has no rows; it needs one x,y pair per line.`);
+  const first = rows[0]!.map((c) => c.trim());
+  const headerLike = first.some((c) => c !== '' && !Number.isFinite(Number(c)));
+  let xi = 0;
+  let yi = 1;
+  let start = 0;
+  let xColumn = '';
+  let yColumn = '';
+  if (headerLike) {
+    const lower = first.map((c) => c.toLowerCase());
+    xi = lower.findIndex((c) => X_NAMES.includes(c));
+    yi = lower.findIndex((c) => Y_NAMES.includes(c));
+    if (xi < 0 || yi < 0) {
+      throw new CsvError(`${where}line 1 is a header without x and y columns (found: ${first.join(', ')}); name them x and y, or remove the header.`);
+    }
+    xColumn = first[xi]!;
+    yColumn = first[yi]!;
+    start = 1;
+  }
+  const n = rows.length - start;
+  if (n === 0) throw new CsvError(`${where}the points file has a header but no points.`);
+  const points = new Float64Array(2 * n);
+  // Papa reports rows without their original line numbers when blank lines are skipped; recover them.
+  const lineOf = lineNumbers(text);
+  for (let r = start; r < rows.length; r++) {
+    const row = rows[r]!;
+    const line = lineOf[r] ?? r + 1;
+    const xs = row[xi]?.trim() ?? '';
+    const ys = row[yi]?.trim() ?? '';
+    if (xs === '' || ys === '') throw new CsvError(`${where}line ${line} is missing ${xs === '' ? 'x' : 'y'}; every line needs x and y.`);
+    const x = Number(xs);
+    const y = Number(ys);
+    if (!Number.isFinite(x) || !Number.isFinite(y)) {
+      throw new CsvError(`${where}line ${line} has a value that is not a number (${JSON.stringify(Number.isFinite(x) ? ys : xs)}); fix or remove that line.`);
+    }
+    points[2 * (r - start)] = x;
+    points[2 * (r - start) + 1] = y;
+  }
+  return { points, count: n, xColumn, yColumn };
+}
+
+/** 1-based line numbers of the non-blank lines of a text. */
+function lineNumbers(text: string): number[] {
+  const out: number[] = [];
+  const lines = text.split(/\r\n|\n|\r/);
+  for (let i = 0; i < lines.length; i++) if (lines[i]!.trim() !== '') out.push(i + 1);
+  return out;
+}

@@ -1,0 +1,101 @@
+/**
+ * Walls pattern: cells that fill the field, separated by thin walls that are darker or lighter than the
+ * cells. Validate -> convert -> kernels -> label image.
+ *
+ * 1. Flatten uneven illumination and smooth (src/core/cv/kernels prepareGrey).
+ * 2. Threshold (Otsu by default; adaptive or manual); the walls are the minority class unless the polarity
+ *    is set (thin walls cover well under half of a cellular image).
+ * 3. Cell interiors, eroded a little, are the markers; markers smaller than the minimum cell area go.
+ * 4. Markers grow back over the walls by priority flooding on the wall relief (marker watershed), so
+ *    the cells tile the field and every pair of touching cells shares a boundary.
+ */
+import { connectedComponents, erodeMask, otsuThreshold, prepareGrey, thresholdMask } from '../cv/kernels';
+import type { CV } from '../cv/index';
+import { NoCellsError } from '../errors';
+import type { Settings } from '../settings';
+import type { GreyImage, LabelImage } from '../types';
+import { floodFromMarkers, relabelSequential } from './flood';
+
+export interface SegmentResult {
+  labels: LabelImage;
+  /** The threshold level used (0..255 on the prepared image). */
+  threshold: number;
+  /** The polarity used: walls dark or light / bodies bright or dark. */
+  polarity: string;
+  /** The minimum cell area (px²) used. */
+  minCellAreaPx: number;
+  /** The 8-bit prepared image the kernels worked on. */
+  prepared: Uint8Array;
+}
+
+/** The flattening radius used when the setting is 'auto' (-1): an eighth of the shorter side, at least 32 px. */
+export function autoFlattenRadius(width: number, height: number): number {
+  return Math.max(32, Math.round(Math.min(width, height) / 8));
+}
+
+/**
+ * The minimum cell area used when the setting is 'auto' (-1): 2 % of the median marker area, at least 9 px².
+ * Noise specks inside walls are far smaller than real cells; a relative floor adapts to magnification.
+ */
+export function autoMinArea(markerAreas: Int32Array): number {
+  const a: number[] = [];
+  for (let i = 1; i < markerAreas.length; i++) a.push(markerAreas[i]!);
+  if (a.length === 0) return 9;
+  a.sort((x, y) => x - y);
+  const med = a[a.length >> 1]!;
+  return Math.max(9, Math.round(0.02 * med));
+}
+
+/** Segments a walls pattern into a label image that tiles the image. */
+export function segmentWalls(cv: CV, img: GreyImage, settings: Settings): SegmentResult {
+  const { width: w, height: h } = img;
+  const s = settings.walls;
+  const flatten = s.flattenRadiusPx < 0 ? autoFlattenRadius(w, h) : s.flattenRadiusPx;
+  const prepared = prepareGrey(cv, img, { flattenRadiusPx: flatten, smoothSigmaPx: s.smoothSigmaPx });
+
+  let threshold: number;
+  let bright: Uint8Array;
+  if (s.threshold === 'adaptive') {
+    threshold = -1;
+    bright = thresholdMask(cv, prepared, w, h, { kind: 'adaptive', blockPx: s.adaptiveBlockPx });
+  } else {
+    threshold = s.threshold === 'manual' ? s.manualThreshold : otsuThreshold(cv, prepared, w, h);
+    bright = thresholdMask(cv, prepared, w, h, { kind: 'global', level: threshold });
+  }
+  let nBright = 0;
+  for (let i = 0; i < bright.length; i++) nBright += bright[i]!;
+  if (nBright === 0 || nBright === bright.length) {
+    throw new NoCellsError('No cells found: the image is uniform (nothing to threshold); check that this is the right image, or set a manual threshold.');
+  }
+  const polarity = s.polarity === 'auto' ? (nBright < bright.length / 2 ? 'light' : 'dark') : s.polarity;
+  // Cells are the non-wall class.
+  const cellMask = bright;
+  if (polarity === 'light') for (let i = 0; i < cellMask.length; i++) cellMask[i] = 1 - cellMask[i]!;
+
+  const seedMask = erodeMask(cv, cellMask, w, h, s.seedErodePx);
+  const cc = connectedComponents(cv, seedMask, w, h, 4);
+  const minArea = settings.minCellAreaPx < 0 ? autoMinArea(cc.areas) : settings.minCellAreaPx;
+  // Markers below the minimum area are dropped: their pixels are flooded by the neighbours. The area of a
+  // marker is smaller than its cell's (walls and erosion removed), so the floor is applied to marker area
+  // grown by the erosion ring only when the setting is explicit.
+  const keep = new Uint8Array(cc.count + 1);
+  let kept = 0;
+  for (let l = 1; l <= cc.count; l++) if (cc.areas[l]! >= minArea) (keep[l] = 1), kept++;
+  if (kept === 0) {
+    throw new NoCellsError(`No cells found: no cell interior is larger than the minimum cell area of ${minArea} px²; lower the minimum cell area or check the threshold.`);
+  }
+  const labels = cc.labels;
+  for (let i = 0; i < labels.length; i++) if (!keep[labels[i]!]) labels[i] = 0;
+
+  // Relief: walls high.
+  const relief = polarity === 'dark' ? invert(prepared) : prepared;
+  floodFromMarkers(labels, relief, w, h);
+  const count = relabelSequential(labels, cc.count);
+  return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
+}
+
+function invert(a: Uint8Array): Uint8Array {
+  const out = new Uint8Array(a.length);
+  for (let i = 0; i < a.length; i++) out[i] = 255 - a[i]!;
+  return out;
+}
