@@ -48,7 +48,7 @@ describe('16-bit grey keeps every value exactly', () => {
 describe('colour becomes BT.601 grey', () => {
   const cases: [string, Uint8Array][] = [
     ['rgb8.png', rgb8()], ['rgba8.png', rgb8()], ['rgb8-lzw.tif', rgb8()], ['rgb8-planar.tif', rgb8()],
-    ['rgbpal-palette.png', rgbpal()],
+    ['rgbpal-palette.png', rgbpal()], ['rgbpal-palette.tif', rgbpal()],
   ];
   for (const [f, rgb] of cases) {
     it(`${f} equals 0.299 R + 0.587 G + 0.114 B rounded (within 0.5, so within the brief's ±1)`, async () => {
