@@ -93,6 +93,15 @@ describe('bad input gets a typed, one-line error', () => {
     expect(e.message).toMatch(/GIF images are not supported; re-save/);
   });
 
+  it('a text file that starts with "BM" is still called text, and a real BMP header is named', async () => {
+    const e = await failure(new TextEncoder().encode('BMI,age\n22.1,40\n24.3,51\n'));
+    expect(e.message).toMatch(/this looks like a text file, not an image/);
+    const bmp = new Uint8Array(54);
+    bmp.set([0x42, 0x4d]);
+    bmp[14] = 40; // BITMAPINFOHEADER size
+    expect((await failure(bmp)).message).toMatch(/BMP images are not supported/);
+  });
+
   it('an unsupported TIFF compression (Zstandard, code 50000, written by libtiff)', async () => {
     const e = await failure(fixture('grey8-zstd.tif'), 'z.tif');
     expect(e).toBeInstanceOf(UnsupportedFormatError);
