@@ -17,6 +17,8 @@ export interface Tessellation {
    * Voronoi neighbours; for a border cell it counts the sides of the clipped polygon.
    */
   sides: Int32Array;
+  /** Centroid of each clipped cell polygon, interleaved x, y (px). */
+  centroid: Float64Array;
   /** 1 if the clipped cell touches the field border. */
   edge: Uint8Array;
   /** Bounding box of each clipped cell, 4 per cell: x0, y0, x1, y1 (px). */
