@@ -14,7 +14,11 @@ function randomSet(n: number, seed: number): Float64Array {
   }
   return p;
 }
-const sum = (a: ArrayLike<number>) => Array.prototype.reduce.call(a, (s: number, v: number) => s + v, 0) as number;
+const sum = (a: ArrayLike<number>): number => {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += a[i]!;
+  return s;
+};
 
 describe('tessellate: invariants on a random set', () => {
   const pts = randomSet(3000, 5);
