@@ -113,11 +113,11 @@ export function defaultSettings(): Settings {
     walls: {
       polarity: 'auto',
       flattenRadiusPx: -1,
-      smoothSigmaPx: 1,
+      smoothSigmaPx: 0.7,
       threshold: 'otsu',
       manualThreshold: 128,
       adaptiveBlockPx: 51,
-      seedErodePx: 1,
+      seedErodePx: 0,
     },
     bodies: {
       polarity: 'auto',

@@ -129,9 +129,13 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
   // Sweep 2: 2x2 windows over the image padded by one pixel of "outside" (-1) for perimeter, plus
   // row extents and neighbour pairs.
   const perimeter = new Float64Array(count);
-  const pairs = new Set<number>();
+  // Pair key -> shared boundary length in pixel edges.
+  const pairs = new Map<number, number>();
   const stride = count + 1;
-  let lastPair = -1;
+  const addEdge = (k: number): void => {
+    pairs.set(k, (pairs.get(k) ?? 0) + 1);
+  };
+  const fourWay: number[] = [];
   const at = (x: number, y: number): number => (x < 0 || y < 0 || x >= w || y >= h ? -1 : L[y * w + x]!);
   for (let y = -1; y < h; y++) {
     for (let x = -1; x < w; x++) {
@@ -145,15 +149,19 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
       if (b > 0 && b !== a) perimeter[b - 1]! += MS_LEN[2 | (c === b ? 4 : 0) | (d === b ? 8 : 0)]!;
       if (c > 0 && c !== a && c !== b) perimeter[c - 1]! += MS_LEN[4 | (d === c ? 8 : 0)]!;
       if (d > 0 && d !== a && d !== b && d !== c) perimeter[d - 1]! += MS_LEN[8]!;
+      // Four cells meeting at one point: resolved after the sweep (see resolveFourWay).
+      if (a > 0 && b > 0 && c > 0 && d > 0 && a !== b && a !== c && a !== d && b !== c && b !== d && c !== d) {
+        fourWay.push(x, y, a, b, c, d);
+      }
       // Neighbour pairs across pixel edges: d-b (vertical edge) and d-c (horizontal edge).
       if (d > 0) {
         if (b > 0 && b !== d) {
           const k = b < d ? b * stride + d : d * stride + b;
-          if (k !== lastPair) (pairs.add(k), (lastPair = k));
+          addEdge(k);
         }
         if (c > 0 && c !== d) {
           const k = c < d ? c * stride + d : d * stride + c;
-          if (k !== lastPair) (pairs.add(k), (lastPair = k));
+          addEdge(k);
         }
       }
     }
@@ -209,9 +217,14 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
     hullArea[c] = hullAreaSorted(hx, hy, m);
   }
 
+  for (let i = 0; i < fourWay.length; i += 6) {
+    const k = resolveFourWay(img, fourWay[i]! + 1, fourWay[i + 1]! + 1, fourWay[i + 2]!, fourWay[i + 3]!, fourWay[i + 4]!, fourWay[i + 5]!, stride);
+    if (!pairs.has(k)) pairs.set(k, 0);
+  }
+
   // Neighbour CSR from the pair set.
   const deg = new Int32Array(count + 1);
-  for (const k of pairs) {
+  for (const k of pairs.keys()) {
     const a = Math.floor(k / stride) - 1;
     const b = (k % stride) - 1;
     deg[a + 1]!++;
@@ -221,7 +234,7 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
   const neighbourOffsets = deg.slice();
   const pos = deg.slice(0, count);
   const neighbourIndex = new Int32Array(neighbourOffsets[count]!);
-  for (const k of pairs) {
+  for (const k of pairs.keys()) {
     const a = Math.floor(k / stride) - 1;
     const b = (k % stride) - 1;
     neighbourIndex[pos[a]!++] = b;
@@ -257,3 +270,34 @@ function hullAreaSorted(x: Float64Array, y: Float64Array, m: number): number {
   }
   return Math.abs(a) / 2;
 }
+
+const FOUR_WAY_RADIUS = 6;
+
+/**
+ * Four cells meeting at one point (window a b / c d): a trivalent network has no such vertex, so a wall
+ * shorter than a pixel was lost here, between one of the diagonal pairs. When two triple points merge,
+ * the two cells that shared the lost wall each lose a corner: their angles at the merged point are the
+ * sums of their two angles less 180°, so they are the sharper ones. Each cell's angle is read as its share
+ * of a disc of radius 6 px around the point; the diagonal pair with the smaller share is joined.
+ * @returns the pair key of the joined pair
+ */
+function resolveFourWay(img: LabelImage, px: number, py: number, a: number, b: number, c: number, d: number, stride: number): number {
+  const { width: w, height: h, labels: L } = img;
+  let na = 0;
+  let nb = 0;
+  let nc = 0;
+  let nd = 0;
+  const r = FOUR_WAY_RADIUS;
+  for (let yy = Math.max(0, py - r); yy < Math.min(h, py + r); yy++) {
+    for (let xx = Math.max(0, px - r); xx < Math.min(w, px + r); xx++) {
+      if ((xx + 0.5 - px) ** 2 + (yy + 0.5 - py) ** 2 > r * r) continue;
+      const l = L[yy * w + xx]!;
+      if (l === a) na++;
+      else if (l === b) nb++;
+      else if (l === c) nc++;
+      else if (l === d) nd++;
+    }
+  }
+  return na + nd <= nb + nc ? (a < d ? a * stride + d : d * stride + a) : b < c ? b * stride + c : c * stride + b;
+}
+

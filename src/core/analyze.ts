@@ -1,0 +1,265 @@
+/**
+ * The pipeline: (grey image or point set, settings) -> Analysis.
+ * bytes -> raster (caller) -> labels -> cells (columns) -> tessellation -> comparison -> summary.
+ * Each stage is one function; progress is reported through a callback; an AbortSignal cancels between stages.
+ */
+import type { Analysis } from './analysis.types';
+import { loadCv } from './cv/index';
+import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TooFewCellsError } from './errors';
+import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
+import { cellSums, type CellSums } from './measure/kernel';
+import { measureColumns, type MeasureContext } from './measure/registry';
+import { segmentBodies } from './segment/bodies';
+import { segmentWalls, type SegmentResult } from './segment/walls';
+import { resolveSettings, type Settings, type SettingsInput } from './settings';
+import { buildSummary } from './summary';
+import { tessellate } from './tessellate/index';
+import type { Tessellation } from './tessellate/types';
+import type { GreyImage, LabelImage, Progress, Rect } from './types';
+
+export type AnalyzeInput =
+  | { kind: 'image'; image: GreyImage; name?: string }
+  | { kind: 'points'; points: Float64Array; width: number; height: number; name?: string };
+
+export interface AnalyzeOptions {
+  onProgress?: Progress;
+  signal?: AbortSignal;
+  /** Event points (interleaved x, y in px, image coordinates) to count per cell. */
+  events?: Float64Array;
+}
+
+/** Segmentation details kept with an analysis (for the Detect panel and the summary). */
+export interface SegmentInfo {
+  threshold: number;
+  polarity: string;
+  minCellAreaPx: number;
+}
+
+function check(signal?: AbortSignal): void {
+  if (signal?.aborted) throw new CancelledError();
+}
+
+/** The field of an image: the settings' rectangle clipped to the image, in whole pixels, or the whole image. */
+export function resolveField(field: Rect | null, width: number, height: number): Rect {
+  if (!field) return { x0: 0, y0: 0, x1: width, y1: height };
+  const f = {
+    x0: Math.max(0, Math.floor(field.x0)),
+    y0: Math.max(0, Math.floor(field.y0)),
+    x1: Math.min(width, Math.ceil(field.x1)),
+    y1: Math.min(height, Math.ceil(field.y1)),
+  };
+  if (f.x1 - f.x0 < MIN_SIDE_PX || f.y1 - f.y0 < MIN_SIDE_PX) {
+    throw new SettingsError(`The field (${f.x1 - f.x0} x ${f.y1 - f.y0} px inside the image) is too small; draw one of at least ${MIN_SIDE_PX} x ${MIN_SIDE_PX} px.`);
+  }
+  return f;
+}
+
+/** A copy of the field part of an image (or the image itself when the field is the whole image). */
+export function cropImage(img: GreyImage, f: Rect): GreyImage {
+  if (f.x0 === 0 && f.y0 === 0 && f.x1 === img.width && f.y1 === img.height) return img;
+  const w = f.x1 - f.x0;
+  const h = f.y1 - f.y0;
+  const data = img.bitDepth === 16 ? new Uint16Array(w * h) : new Uint8Array(w * h);
+  for (let y = 0; y < h; y++) data.set(img.data.subarray((y + f.y0) * img.width + f.x0, (y + f.y0) * img.width + f.x1), y * w);
+  return { width: w, height: h, data, bitDepth: img.bitDepth };
+}
+
+function validateImage(img: GreyImage): void {
+  const { width: w, height: h } = img;
+  if (w < MIN_SIDE_PX || h < MIN_SIDE_PX) {
+    throw new ImageTooSmallError(`${w} x ${h} px is too small to analyse; the minimum is ${MIN_SIDE_PX} x ${MIN_SIDE_PX}.`);
+  }
+  if (w * h > MAX_PIXELS) throw new ImageTooLargeError(`${w} x ${h} px exceeds the limit of 268 megapixels; crop or downsample first.`);
+  if (img.data.length !== w * h) throw new SettingsError(`The image data holds ${img.data.length} values, not ${w} x ${h}.`);
+}
+
+/**
+ * Analyses one grey image (walls or bodies pattern) or one point set (points pattern).
+ *
+ * @param input the image (grey, 8 or 16 bit) or the points (px, image coordinates) with the image size
+ * @param settingsInput settings over the defaults (src/core/settings.ts)
+ * @returns the Analysis: labels, per-cell columns, tessellation, summary, settings used
+ * @throws TessellabError subclasses with one-line messages (no cells, too few cells, bad settings, ...)
+ */
+export async function analyze(input: AnalyzeInput, settingsInput: SettingsInput | Settings = {}, opts: AnalyzeOptions = {}): Promise<Analysis> {
+  const settings = resolveSettings(settingsInput as SettingsInput);
+  const progress = opts.onProgress ?? (() => {});
+  check(opts.signal);
+  if (input.kind === 'points') {
+    if (settings.pattern !== 'points') settings.pattern = 'points';
+    return analyzePoints(input.points, input.width, input.height, settings, opts);
+  }
+  if (settings.pattern === 'points') throw new SettingsError('The points pattern reads a CSV of x, y, not an image; choose walls or bodies for an image.');
+  const img = input.image;
+  validateImage(img);
+  const field = resolveField(settings.field, img.width, img.height);
+  const crop = cropImage(img, field);
+  progress('load', 0);
+  const { cv } = await loadCv();
+  check(opts.signal);
+  progress('segment', 0);
+  const seg: SegmentResult = settings.pattern === 'walls' ? segmentWalls(cv, crop, settings) : segmentBodies(cv, crop, settings);
+  progress('segment', 1);
+  check(opts.signal);
+  return measureLabels(seg.labels, crop, field, img.width, img.height, settings, opts, { threshold: seg.threshold, polarity: seg.polarity, minCellAreaPx: seg.minCellAreaPx });
+}
+
+/**
+ * Recomputes every figure from a label image (after a merge / split / remove edit), without segmenting.
+ * @param labels labels of the field (field-sized), 0 = wall/background
+ * @param image the field's grey image for intensities, or null
+ * @param imageSize the full image's size (the field is settings.field inside it)
+ */
+export async function reanalyzeLabels(
+  labels: LabelImage,
+  image: GreyImage | null,
+  settingsInput: SettingsInput | Settings,
+  imageSize: { width: number; height: number },
+  opts: AnalyzeOptions = {},
+): Promise<Analysis> {
+  const settings = resolveSettings(settingsInput as SettingsInput);
+  const field = resolveField(settings.field, imageSize.width, imageSize.height);
+  if (labels.width !== field.x1 - field.x0 || labels.height !== field.y1 - field.y0) {
+    throw new SettingsError(`The label image is ${labels.width} x ${labels.height} px but the field is ${field.x1 - field.x0} x ${field.y1 - field.y0} px.`);
+  }
+  return measureLabels(labels, image, field, imageSize.width, imageSize.height, settings, opts, null);
+}
+
+function measureLabels(
+  labels: LabelImage,
+  image: GreyImage | null,
+  field: Rect,
+  width: number,
+  height: number,
+  settings: Settings,
+  opts: AnalyzeOptions,
+  segment: SegmentInfo | null,
+): Analysis {
+  const progress = opts.onProgress ?? (() => {});
+  progress('measure', 0);
+  if (labels.count < 3) {
+    throw new TooFewCellsError(`Only ${labels.count} cell${labels.count === 1 ? '' : 's'} found; the tessellation needs at least 3. Check the pattern kind and threshold, or use a larger field.`);
+  }
+  const sums = cellSums(labels, image?.data);
+  const n = sums.count;
+  const pts = new Float64Array(2 * n);
+  const x = new Float64Array(n);
+  const y = new Float64Array(n);
+  for (let c = 0; c < n; c++) {
+    x[c] = sums.cx[c]! + field.x0;
+    y[c] = sums.cy[c]! + field.y0;
+    pts[2 * c] = x[c]!;
+    pts[2 * c + 1] = y[c]!;
+  }
+  progress('measure', 1);
+  check(opts.signal);
+  progress('tessellate', 0);
+  const tess = tessellate(pts, field);
+  progress('tessellate', 1);
+  const neighbours = new Int32Array(n);
+  for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
+  const events = opts.events ? countEvents(opts.events, labels, field, tess) : undefined;
+  const ctx: MeasureContext = {
+    count: n,
+    umPerPx: settings.umPerPx,
+    offsetX: field.x0,
+    offsetY: field.y0,
+    sums,
+    x,
+    y,
+    voronoiArea: tess.area,
+    voronoiSides: tess.sides,
+    edge: sums.edge,
+    neighbours,
+    events,
+    hasIntensity: !!image,
+  };
+  const columns = measureColumns(ctx, settings.pattern);
+  check(opts.signal);
+  progress('statistics', 0);
+  const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
+  const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
+  progress('statistics', 1);
+  return { width, height, field, settings, labels, columns, tessellation: tess, summary };
+}
+
+function bboxOf(s: CellSums): Float64Array {
+  const b = new Float64Array(4 * s.count);
+  for (let c = 0; c < s.count; c++) {
+    b[4 * c] = s.xmin[c]!;
+    b[4 * c + 1] = s.ymin[c]!;
+    b[4 * c + 2] = s.xmax[c]! + 1;
+    b[4 * c + 3] = s.ymax[c]! + 1;
+  }
+  return b;
+}
+
+/** Events per cell: the cell whose pixel holds the event, or the nearest centroid's cell outside cells. */
+function countEvents(events: Float64Array, labels: LabelImage | null, field: Rect, tess: Tessellation): Int32Array {
+  const n = tess.area.length;
+  const out = new Int32Array(n);
+  for (let i = 0; i < events.length / 2; i++) {
+    const ex = events[2 * i]!;
+    const ey = events[2 * i + 1]!;
+    if (ex < field.x0 || ey < field.y0 || ex >= field.x1 || ey >= field.y1) continue;
+    let cell = -1;
+    if (labels) {
+      const l = labels.labels[Math.floor(ey - field.y0) * labels.width + Math.floor(ex - field.x0)]!;
+      if (l > 0) cell = l - 1;
+    }
+    if (cell < 0) cell = nearest(tess.points, ex, ey);
+    out[cell]!++;
+  }
+  return out;
+}
+
+function nearest(p: Float64Array, x: number, y: number): number {
+  let best = 0;
+  let bd = Infinity;
+  for (let i = 0; i < p.length / 2; i++) {
+    const d = (p[2 * i]! - x) ** 2 + (p[2 * i + 1]! - y) ** 2;
+    if (d < bd) (bd = d), (best = i);
+  }
+  return best;
+}
+
+function analyzePoints(points: Float64Array, width: number, height: number, settings: Settings, opts: AnalyzeOptions): Analysis {
+  const progress = opts.onProgress ?? (() => {});
+  let pts = points;
+  if (settings.points.units === 'um') {
+    if (settings.umPerPx === null) settings.umPerPx = 1;
+    const k = 1 / settings.umPerPx;
+    pts = points.map((v) => v * k);
+  }
+  const field = settings.field ? { ...settings.field } : { x0: 0, y0: 0, x1: width, y1: height };
+  const n = pts.length / 2;
+  if (n < 3) throw new TooFewCellsError(`Only ${n} point${n === 1 ? '' : 's'}; the tessellation needs at least 3.`);
+  progress('tessellate', 0);
+  const tess = tessellate(pts, field);
+  progress('tessellate', 1);
+  const x = new Float64Array(n);
+  const y = new Float64Array(n);
+  for (let i = 0; i < n; i++) (x[i] = pts[2 * i]!), (y[i] = pts[2 * i + 1]!);
+  const neighbours = new Int32Array(n);
+  for (let i = 0; i < n; i++) neighbours[i] = tess.neighbourOffsets[i + 1]! - tess.neighbourOffsets[i]!;
+  const events = opts.events ? countEvents(opts.events, null, field, tess) : undefined;
+  const ctx: MeasureContext = {
+    count: n,
+    umPerPx: settings.umPerPx,
+    offsetX: 0,
+    offsetY: 0,
+    x,
+    y,
+    voronoiArea: tess.area,
+    voronoiSides: tess.sides,
+    edge: tess.edge,
+    neighbours,
+    events,
+    hasIntensity: false,
+  };
+  const columns = measureColumns(ctx, 'points');
+  progress('statistics', 0);
+  const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
+  progress('statistics', 1);
+  return { width, height, field, settings, labels: null, columns, tessellation: tess, summary };
+}
