@@ -1,0 +1,168 @@
+/**
+ * `tessellab kinetics IMAGE... [--times t1,t2,... | --times-csv FILE] [--out DIR]`: the transformed fraction
+ * of an image series and its JMAK (Avrami) fit; writes kinetics.csv, kinetics.json and settings.json.
+ */
+import { mkdir, readFile, writeFile } from 'node:fs/promises';
+import { basename, join } from 'node:path';
+import { cropImage, reanalyzeLabels } from '../../core/analyze';
+import { describeError, SettingsError, TessellabError } from '../../core/errors';
+import { decodeImage } from '../../core/image/decode';
+import { encodePng } from '../../core/image/encode';
+import { analyzeSeriesDetailed, parseTimesCsv, parseTimesList, timesFromNames, type KineticsResult } from '../../core/kinetics/index';
+import { resolveSettings, type SettingsInput } from '../../core/settings';
+import type { GreyImage, Rect } from '../../core/types';
+import { parseArgs, positiveNumber } from '../args';
+import type { Command } from '../main';
+
+const VALUED = ['times', 'times-csv', 'time-unit', 'out', 'threshold', 'phase', 'fit-min', 'fit-max', 'fit-method', 'field', 'um-per-px', 'settings'];
+const FLAGS = ['incubation', 'allow-decreasing', 'final-analysis'];
+
+const usage = `tessellab kinetics IMAGE... [--times t1,t2,... | --times-csv FILE] [--time-unit s] [--out DIR]
+    [--threshold 0..255] [--phase auto|bright|dark] [--fit-min 0.02] [--fit-max 0.98] [--fit-method nonlinear|avrami-plot]
+    [--incubation] [--allow-decreasing] [--field x0,y0,x1,y1] [--um-per-px X] [--settings FILE] [--final-analysis]
+
+  Frames are the images in the order given (every page of a multi-page TIFF is a frame). Times come from
+  --times, from a CSV of file,time lines (--times-csv), or else from the last number in each file name.
+  One field and one threshold serve the whole series (Otsu on the last frame unless --threshold is given).
+  Writes kinetics.csv, kinetics.json and settings.json to --out (default: the current folder).
+  --final-analysis also measures the last frame's domain mosaic as a walls pattern: final.summary.json,
+  final.labels.png (16-bit labels) and final.walls.png.`;
+
+function fraction01(v: string, name: string): number {
+  const x = Number(v);
+  if (!Number.isFinite(x) || x < 0 || x > 1) throw new SettingsError(`--${name} must be a number from 0 to 1; got "${v}".`);
+  return x;
+}
+
+function parseField(v: string): Rect {
+  const p = v.split(',').map((s) => Number(s.trim()));
+  if (p.length !== 4 || p.some((x) => !Number.isFinite(x))) throw new SettingsError(`--field must be x0,y0,x1,y1 in px; got "${v}".`);
+  return { x0: p[0]!, y0: p[1]!, x1: p[2]!, y1: p[3]! };
+}
+
+function csvCell(s: string): string {
+  return /[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** kinetics.csv: one row per frame, units in the column names. */
+export function kineticsCsv(r: KineticsResult): string {
+  const areaCol = r.areaUnit === 'µm²' ? 'mean_domain_area_um2' : 'mean_domain_area_px2';
+  const unit = r.timeUnit.replace(/[^A-Za-z0-9]/g, '') || 'unit';
+  const lines = [`frame,file,time_${unit},fraction,domains,${areaCol},new_domains`];
+  for (const f of r.frames) {
+    lines.push([f.frame, csvCell(f.source), f.time, f.fraction, f.domains, f.meanDomainArea ?? '', f.newDomains].join(','));
+  }
+  return lines.join('\n') + '\n';
+}
+
+function headline(r: KineticsResult): string {
+  const a = r.avrami;
+  const ci = (x: [number, number] | null, d = 3): string => (x ? ` [${x[0].toPrecision(d)}, ${x[1].toPrecision(d)}]` : '');
+  return [
+    `JMAK fit (${a.method}, ${a.frames.length} frames; ${r.convention}):`,
+    `  n = ${a.n.toFixed(3)}${ci(a.ci95.n, 4)}  k = ${a.k.toPrecision(4)} ${r.timeUnit}^-${a.n.toFixed(2)}${ci(a.ci95.k)}  K = ${a.K.toPrecision(4)} ${r.timeUnit}^-1`,
+    `  t½ = ${a.tHalf.toPrecision(4)} ${r.timeUnit}${ci(a.ci95.tHalf, 4)}${a.t0Fitted ? `  t0 = ${a.t0.toPrecision(4)} ${r.timeUnit}` : ''}  r² = ${a.r2 === null ? 'n/a' : a.r2.toFixed(5)}  (95 % intervals)`,
+    `  ${r.interpretation.statement}`,
+  ].join('\n');
+}
+
+export const command: Command = {
+  name: 'kinetics',
+  summary: 'Transformed fraction over an image series and its JMAK (Avrami) fit.',
+  usage,
+  async run(argv: string[]): Promise<number> {
+    const args = parseArgs(argv, VALUED, FLAGS);
+    if (args.positional.length === 0) throw new SettingsError('Give the images of the series, in time order: tessellab kinetics IMAGE... --times t1,t2,...');
+    const o = args.options;
+    const input: SettingsInput = o.has('settings') ? (JSON.parse(await readFile(o.get('settings')!, 'utf8')) as SettingsInput) : {};
+    const kin: Record<string, unknown> = { ...(input.kinetics ?? {}) };
+    if (o.has('threshold')) {
+      const t = Number(o.get('threshold'));
+      if (!Number.isFinite(t) || t < 0 || t > 255) throw new SettingsError(`--threshold must be a grey level from 0 to 255; got "${o.get('threshold')}".`);
+      kin.threshold = 'manual';
+      kin.manualThreshold = t;
+    }
+    if (o.has('phase')) kin.phase = o.get('phase');
+    if (o.has('fit-min')) kin.fitMin = fraction01(o.get('fit-min')!, 'fit-min');
+    if (o.has('fit-max')) kin.fitMax = fraction01(o.get('fit-max')!, 'fit-max');
+    if (o.has('fit-method')) kin.fitMethod = o.get('fit-method');
+    if (args.flags.has('incubation')) kin.incubation = true;
+    const field = o.has('field') ? parseField(o.get('field')!) : undefined;
+    const settingsIn: SettingsInput = { ...input, kinetics: kin as SettingsInput['kinetics'] };
+    if (o.has('um-per-px')) settingsIn.umPerPx = positiveNumber(o.get('um-per-px')!, 'um-per-px');
+    if (field) settingsIn.field = field;
+    const settings = resolveSettings(settingsIn);
+
+    const frames: GreyImage[] = [];
+    const sources: string[] = [];
+    let fileUmPerPx: number | null = null;
+    for (const [i, path] of args.positional.entries()) {
+      process.stderr.write(`kinetics: reading ${i + 1} of ${args.positional.length}: ${path}\n`);
+      const name = basename(path);
+      const dec = await decodeImage(new Uint8Array(await readFile(path)), { name });
+      fileUmPerPx ??= dec.umPerPx;
+      dec.pages.forEach((p, k) => {
+        frames.push(p);
+        sources.push(dec.pages.length > 1 ? `${name}[${k + 1}]` : name);
+      });
+    }
+    if (settings.umPerPx === null && fileUmPerPx !== null) settings.umPerPx = fileUmPerPx;
+    let times = o.has('times')
+      ? parseTimesList(o.get('times')!)
+      : o.has('times-csv')
+        ? parseTimesCsv(await readFile(o.get('times-csv')!, 'utf8'), sources)
+        : timesFromNames(sources);
+    if (!o.has('times') && !o.has('times-csv')) {
+      // Times read from the names fix the order too: a shell glob sorts 't10' before 't9'.
+      const order = times.map((_, i) => i).sort((a, b) => times[a]! - times[b]!);
+      if (order.some((k, i) => k !== i)) {
+        process.stderr.write('kinetics: frames put in the order of the times in their file names\n');
+        const [f, s] = [frames.slice(), sources.slice()];
+        order.forEach((k, i) => {
+          frames[i] = f[k]!;
+          sources[i] = s[k]!;
+        });
+        times = order.map((k) => times[k]!);
+      }
+    }
+
+    const timeUnit = o.get('time-unit') ?? 's';
+    const { result, mosaic } = await analyzeSeriesDetailed(frames, times, settings, {
+      timeUnit,
+      sources,
+      allowDecreasing: args.flags.has('allow-decreasing'),
+      onProgress: (stage) => {
+        if (stage.startsWith('frame')) process.stderr.write(`kinetics: ${stage}\n`);
+      },
+    });
+    const out = o.get('out') ?? '.';
+    await mkdir(out, { recursive: true });
+    await writeFile(join(out, 'kinetics.csv'), kineticsCsv(result));
+    await writeFile(join(out, 'kinetics.json'), JSON.stringify(result, null, 2) + '\n');
+    await writeFile(join(out, 'settings.json'), JSON.stringify(settings, null, 2) + '\n');
+    for (const w of result.warnings) process.stderr.write(`kinetics: warning: ${w}\n`);
+    process.stdout.write(headline(result) + '\n');
+
+    if (args.flags.has('final-analysis')) {
+      process.stderr.write('kinetics: measuring the final mosaic as a walls pattern\n');
+      const labels16 = Uint16Array.from(mosaic.labels.labels, (v) => Math.min(v, 65535));
+      await writeFile(join(out, 'final.labels.png'), encodePng({ width: mosaic.labels.width, height: mosaic.labels.height, data: labels16, channels: 1, bitDepth: 16 }));
+      await writeFile(join(out, 'final.walls.png'), encodePng({ ...mosaic.wallsImage, channels: 1, bitDepth: 8 }));
+      try {
+        const last = frames[frames.length - 1]!;
+        const f = result.field;
+        const crop: GreyImage = cropImage(last, f);
+        const an = await reanalyzeLabels(mosaic.labels, crop, { ...settings, pattern: 'walls', field: f }, { width: last.width, height: last.height });
+        const nuclei = mosaic.nuclei;
+        await writeFile(join(out, 'final.summary.json'), JSON.stringify({ summary: an.summary, nuclei, complete: mosaic.complete }, null, 2) + '\n');
+        if (!mosaic.complete) process.stderr.write('kinetics: warning: the last frame has not reached fitMax; the mosaic still has untransformed gaps.\n');
+      } catch (e) {
+        if (!(e instanceof TessellabError)) throw e;
+        process.stderr.write(`kinetics: the final mosaic could not be measured: ${describeError(e)}\n`);
+      }
+    }
+    process.stderr.write(`kinetics: wrote ${join(out, 'kinetics.csv')} and ${join(out, 'kinetics.json')}\n`);
+    return 0;
+  },
+};
+
