@@ -1,0 +1,465 @@
+/**
+ * The web app's state: the list of images (entries), the selection, the Bench's layers and tools, and the
+ * job queue that sends work to the worker through the bridge. Components read and call this; they hold no
+ * state of their own beyond what they draw.
+ */
+import { defaultSettings, resolveSettings, type Settings } from '../../core/settings';
+import type { EditOp } from '../../core/edit/labels';
+import type { Rect } from '../../core/types';
+import type { AnalysisResult, PreviewResult } from '../../../workers/protocol';
+import { Bridge, CancelledRunError, SupersededError, WorkerCrashedError } from '../bridge';
+import {
+  deleteEntry, loadEntries, loadSession, saveEntry, saveSession, type EntryStatus, type Layers, type StoredEntry,
+} from '../db';
+
+/** The largest image the web app opens, in pixels (the command line allows more). */
+export const WEB_MAX_PIXELS = 64_000_000;
+
+export type Tool = 'pan' | 'scale' | 'field' | 'split';
+export type PanelName = 'scale' | 'detect' | 'cells' | 'randomness' | 'export';
+export const PANELS: { name: PanelName; label: string; key: string }[] = [
+  { name: 'scale', label: 'Scale', key: '1' },
+  { name: 'detect', label: 'Detect', key: '2' },
+  { name: 'cells', label: 'Cells', key: '3' },
+  { name: 'randomness', label: 'Randomness', key: '4' },
+  { name: 'export', label: 'Export', key: '5' },
+];
+
+type Mode = 'restore' | 'segment' | 'measure';
+
+let nextId = 0;
+function newId(): string {
+  return `${Date.now().toString(36)}-${(nextId++).toString(36)}-${Math.random().toString(36).slice(2, 8)}`;
+}
+
+/** Pixel size as typed: a positive finite number, or an error message for the Scale panel. */
+export function parsePixelSize(text: string): { value: number } | { error: string } {
+  const t = text.trim().replace(',', '.');
+  if (t === '') return { error: 'Type a pixel size in µm per pixel, e.g. 0.5.' };
+  const v = Number(t);
+  if (!Number.isFinite(v)) return { error: `"${text}" is not a number; type the pixel size in µm per pixel, e.g. 0.5.` };
+  if (v <= 0) return { error: `The pixel size must be above 0 µm per pixel; got ${v}.` };
+  return { value: v };
+}
+
+/** One image (or point set) in the list. */
+export class Entry {
+  readonly id: string;
+  name = $state('');
+  kind = $state<'image' | 'points'>('image');
+  order = 0;
+  status = $state<EntryStatus>('queued');
+  stage = $state('');
+  fraction = $state(0);
+  /** What went wrong with this entry (shown beside it); earlier results stay. */
+  error = $state<string | null>(null);
+  /** A note that is not an error (e.g. edits cleared by a new detection). */
+  notice = $state<string | null>(null);
+  width = $state(0);
+  height = $state(0);
+  umPerPxFromFile = $state<number | null>(null);
+  settings = $state<Settings>(defaultSettings());
+  ops = $state.raw<EditOp[]>([]);
+  redo = $state.raw<EditOp[]>([]);
+  bitmap = $state.raw<ImageBitmap | null>(null);
+  result = $state.raw<AnalysisResult | null>(null);
+  preview = $state.raw<PreviewResult | null>(null);
+  storedCount = $state<number | null>(null);
+  /** File bytes until the worker has stored them. */
+  bytes: Uint8Array | null = null;
+  opened = false;
+
+  constructor(id: string, name: string) {
+    this.id = id;
+    this.name = name;
+  }
+
+  /** Cell count of the current result (or of the stored one before it is restored). */
+  get count(): number | null {
+    const a = this.result?.analysis;
+    if (a) return a.tessellation.points.length / 2;
+    return this.storedCount;
+  }
+
+  /** The settings sent to the worker: a plain copy, the file's pixel size used when none was typed. */
+  effectiveSettings(): Settings {
+    const s = $state.snapshot(this.settings) as Settings;
+    if (s.umPerPx === null && this.umPerPxFromFile !== null) s.umPerPx = this.umPerPxFromFile;
+    return s;
+  }
+
+  toStored(): StoredEntry {
+    return {
+      id: this.id, name: this.name, kind: this.kind, order: this.order,
+      settings: $state.snapshot(this.settings) as Settings, ops: this.ops, redo: this.redo,
+      status: this.status === 'done' || this.status === 'error' ? this.status : 'queued',
+      error: this.error, width: this.width, height: this.height, umPerPxFromFile: this.umPerPxFromFile,
+      count: this.count,
+    };
+  }
+}
+
+interface Job { mode: Mode; onFail?: () => void }
+
+export class AppState {
+  entries = $state<Entry[]>([]);
+  selectedId = $state<string | null>(null);
+  /** Selected cells (ids of the current result of the selected entry). */
+  selectedCells = $state.raw<number[]>([]);
+  hoverCell = $state<number | null>(null);
+  layers = $state<Layers>({ outlines: true, centroids: true, voronoi: true, delaunay: false, ids: false, gap: false });
+  tool = $state<Tool>('pan');
+  panel = $state<PanelName>('detect');
+  theme = $state<'light' | 'dark' | null>(null);
+  helpOpen = $state(false);
+  cvStatus = $state<'idle' | 'loading' | 'ready' | 'error'>('idle');
+  cvFraction = $state(0);
+  /** A page-wide message (worker restarted, storage unavailable). */
+  banner = $state<string | null>(null);
+  /** The last scale line drawn on the Bench (px), waiting for its length. */
+  scaleLine = $state.raw<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
+  /** Message about the current edit (shown in the Cells panel). */
+  editMessage = $state<string | null>(null);
+  /** Asks the Bench to centre on a cell. */
+  focusRequest = $state.raw<{ cell: number; n: number } | null>(null);
+  ready = $state(false);
+  demoAdded = false;
+
+  readonly bridge: Bridge;
+  private jobs = new Map<string, Job>();
+  private active: string | null = null;
+  private saveTimer: ReturnType<typeof setTimeout> | null = null;
+
+  constructor(makeWorker: () => Worker) {
+    this.bridge = new Bridge(makeWorker, {
+      onCrash: (m) => { this.banner = m; this.cvStatus = 'idle'; },
+      onCvProgress: (f) => { this.cvFraction = f; if (f >= 1) this.cvStatus = 'ready'; },
+    });
+  }
+
+  get selected(): Entry | null {
+    return this.entries.find((e) => e.id === this.selectedId) ?? null;
+  }
+
+  /** Restores the stored session, or adds the demo on a first visit. */
+  async init(demo: () => Promise<{ name: string; bytes: Uint8Array; umPerPx: number | null; settings?: Partial<Settings> } | null>): Promise<void> {
+    this.warmUp();
+    let stored: StoredEntry[] = [];
+    try {
+      const s = await loadSession();
+      if (s) {
+        this.layers = s.layers;
+        this.theme = s.theme;
+        this.panel = (s.panel as PanelName) ?? 'detect';
+        this.demoAdded = s.demoAdded;
+        this.selectedId = s.selectedId;
+      }
+      stored = await loadEntries();
+    } catch {
+      this.banner = 'This browser does not let Tessellab keep the session (IndexedDB is unavailable); results are lost on reload.';
+    }
+    for (const r of stored) {
+      const e = new Entry(r.id, r.name);
+      e.kind = r.kind; e.order = r.order; e.settings = r.settings; e.ops = r.ops; e.redo = r.redo;
+      e.width = r.width; e.height = r.height; e.umPerPxFromFile = r.umPerPxFromFile; e.storedCount = r.count;
+      e.status = r.status === 'error' ? 'error' : 'queued';
+      e.error = r.error;
+      this.entries.push(e);
+      if (r.status !== 'error' || r.width > 0) this.request(e, 'restore');
+    }
+    if (!this.entries.some((e) => e.id === this.selectedId)) this.selectedId = this.entries[0]?.id ?? null;
+    if (!this.demoAdded && this.entries.length === 0) {
+      try {
+        const d = await demo();
+        if (d) {
+          this.demoAdded = true;
+          const e = this.addBytes(d.name, d.bytes);
+          if (d.settings) Object.assign(e.settings, d.settings);
+          if (d.umPerPx) e.settings.umPerPx = d.umPerPx;
+        }
+      } catch (err) {
+        this.banner = `The demo image could not be loaded (${err instanceof Error ? err.message : String(err)}); drop your own images to start.`;
+      }
+    }
+    this.ready = true;
+    this.persistSession();
+  }
+
+  warmUp(): void {
+    if (this.cvStatus === 'loading' || this.cvStatus === 'ready') return;
+    this.cvStatus = 'loading';
+    this.bridge.warmUp().then(
+      () => { this.cvStatus = 'ready'; },
+      (e: unknown) => { if (!(e instanceof CancelledRunError)) this.cvStatus = 'error'; else this.cvStatus = 'idle'; },
+    );
+  }
+
+  /** Adds files (dropped, picked or pasted); each becomes an entry and is analysed in turn. */
+  async addFiles(files: Iterable<File>): Promise<void> {
+    for (const f of files) {
+      const bytes = new Uint8Array(await f.arrayBuffer());
+      this.addBytes(f.name || 'pasted image', bytes);
+    }
+  }
+
+  addBytes(name: string, bytes: Uint8Array): Entry {
+    const e = new Entry(newId(), name);
+    e.bytes = bytes;
+    e.order = this.entries.length ? Math.max(...this.entries.map((x) => x.order)) + 1 : 0;
+    // New images start from the settings of the one on the Bench, so a batch is analysed alike.
+    const from = this.selected;
+    if (from) {
+      const s = $state.snapshot(from.settings) as Settings;
+      s.field = null;
+      e.settings = s;
+    }
+    if (/\.(csv|txt)$/i.test(name)) { e.kind = 'points'; e.settings.pattern = 'points'; }
+    this.entries.push(e);
+    if (!this.selectedId || this.entries.length === 1) this.selectedId = e.id;
+    this.request(e, 'segment');
+    this.save(e);
+    this.persistSession();
+    return this.entries[this.entries.length - 1];
+  }
+
+  select(id: string): void {
+    if (this.selectedId === id) return;
+    this.selectedId = id;
+    this.selectedCells = [];
+    this.hoverCell = null;
+    this.scaleLine = null;
+    this.editMessage = null;
+    this.persistSession();
+  }
+
+  /** Selects a cell; additive keeps the earlier selection (for merging two). */
+  selectCell(cell: number | null, additive = false, focus = false): void {
+    if (cell === null) { this.selectedCells = []; return; }
+    if (additive) {
+      const s = this.selectedCells.includes(cell) ? this.selectedCells.filter((c) => c !== cell) : [...this.selectedCells, cell];
+      this.selectedCells = s.slice(-2);
+    } else this.selectedCells = [cell];
+    if (focus) this.focusRequest = { cell, n: (this.focusRequest?.n ?? 0) + 1 };
+  }
+
+  async removeEntry(id: string): Promise<void> {
+    const i = this.entries.findIndex((e) => e.id === id);
+    if (i < 0) return;
+    const [e] = this.entries.splice(i, 1);
+    this.jobs.delete(id);
+    e.bitmap?.close();
+    if (this.selectedId === id) this.selectedId = this.entries[Math.min(i, this.entries.length - 1)]?.id ?? null;
+    await deleteEntry(id).catch(() => undefined);
+    await this.bridge.forget(id).catch(() => undefined);
+    this.persistSession();
+  }
+
+  /** Settings changed: segment again (clears edits) or only re-measure (scale). */
+  changed(e: Entry, what: 'segment' | 'measure'): void {
+    if (what === 'segment' && e.ops.length) {
+      e.notice = `${e.ops.length} edit${e.ops.length > 1 ? 's were' : ' was'} cleared by the new detection.`;
+      e.ops = [];
+      e.redo = [];
+    }
+    if (e.status === 'error' && !e.opened) return;
+    this.request(e, e.result || what === 'segment' ? what : 'segment', undefined, true);
+    this.save(e);
+  }
+
+  /** Live preview while a slider moves (downscaled; the full run follows on release). */
+  async previewNow(e: Entry): Promise<void> {
+    if (!e.opened || e.kind !== 'image') return;
+    let s: Settings;
+    try { s = resolveSettings(e.effectiveSettings()); } catch { return; }
+    const r = await this.bridge.preview(e.id, s);
+    if (r) { e.preview?.outlines?.close(); e.preview = r; }
+  }
+
+  /** Applies a label edit to the selected entry and re-measures; a failed edit is rolled back. */
+  edit(op: EditOp): void {
+    const e = this.selected;
+    if (!e || !e.result?.analysis.labels) return;
+    this.editMessage = null;
+    const before = e.ops;
+    const beforeRedo = e.redo;
+    e.ops = [...e.ops, op];
+    e.redo = [];
+    this.selectedCells = [];
+    this.request(e, 'measure', () => { e.ops = before; e.redo = beforeRedo; }, true);
+    this.save(e);
+  }
+
+  undo(): void {
+    const e = this.selected;
+    if (!e || e.ops.length === 0) return;
+    const op = e.ops[e.ops.length - 1];
+    e.ops = e.ops.slice(0, -1);
+    e.redo = [...e.redo, op];
+    this.selectedCells = [];
+    this.request(e, 'measure', undefined, true);
+    this.save(e);
+  }
+
+  redoEdit(): void {
+    const e = this.selected;
+    if (!e || e.redo.length === 0) return;
+    const op = e.redo[e.redo.length - 1];
+    e.redo = e.redo.slice(0, -1);
+    e.ops = [...e.ops, op];
+    this.selectedCells = [];
+    this.request(e, 'measure', undefined, true);
+    this.save(e);
+  }
+
+  /** Re-analyses every entry with the selected entry's detection settings (its own pixel size kept). */
+  applyToAll(): void {
+    const from = this.selected;
+    if (!from) return;
+    for (const e of this.entries) {
+      if (e === from || e.kind !== from.kind) continue;
+      const s = $state.snapshot(from.settings) as Settings;
+      s.umPerPx = e.settings.umPerPx;
+      s.field = e.settings.field;
+      e.settings = s;
+      this.changed(e, 'segment');
+    }
+  }
+
+  /** Stops all work at once (the worker is terminated and restarts on the next request). */
+  cancel(): void {
+    this.jobs.clear();
+    this.bridge.cancelAll();
+    this.cvStatus = 'idle';
+  }
+
+  get busy(): boolean {
+    return this.entries.some((e) => e.status === 'opening' || e.status === 'analysing');
+  }
+
+  setField(e: Entry, r: Rect | null): void {
+    e.settings.field = r;
+    this.changed(e, 'segment');
+  }
+
+  private request(e: Entry, mode: Mode, onFail?: () => void, front = false): void {
+    const prev = this.jobs.get(e.id);
+    if (prev && prev.mode === 'segment' && mode !== 'segment') mode = 'segment';
+    if (front) this.jobs.delete(e.id);
+    this.jobs.set(e.id, { mode, onFail });
+    if (front) {
+      const rest = [...this.jobs].filter(([k]) => k !== e.id);
+      this.jobs = new Map([[e.id, { mode, onFail }], ...rest]);
+    }
+    if (this.active === e.id) this.bridge.analyzeCancel(e.id);
+    else if (e.status !== 'done' && e.status !== 'error') e.status = 'queued';
+    void this.pump();
+  }
+
+  private async pump(): Promise<void> {
+    if (this.active) return;
+    const next = this.jobs.entries().next();
+    if (next.done) return;
+    const [id, job] = next.value;
+    this.jobs.delete(id);
+    const e = this.entries.find((x) => x.id === id);
+    if (!e) { void this.pump(); return; }
+    this.active = id;
+    try {
+      await this.run(e, job);
+    } finally {
+      this.active = null;
+      void this.pump();
+    }
+  }
+
+  private async run(e: Entry, job: Job): Promise<void> {
+    let mode = job.mode;
+    const hadResult = e.result !== null;
+    try {
+      if (!e.opened || !this.bridge.isOpen(e.id)) {
+        const first = !e.opened;
+        e.status = 'opening';
+        e.stage = 'Reading the file';
+        const r = await this.bridge.open(e.id, e.name, e.bytes, WEB_MAX_PIXELS);
+        e.bytes = null;
+        e.opened = true;
+        e.kind = r.kind;
+        e.width = r.width;
+        e.height = r.height;
+        e.umPerPxFromFile = r.umPerPxFromFile;
+        if (r.bitmap) { e.bitmap?.close(); e.bitmap = r.bitmap; } else if (first) e.bitmap = null;
+        if (r.kind === 'points') e.settings.pattern = 'points';
+        e.error = null;
+      }
+      if (mode === 'restore') {
+        e.stage = 'Restoring the result';
+        const r = await this.bridge.restore(e.id);
+        if (r) { this.accept(e, r); return; }
+        mode = 'segment';
+      }
+      e.status = 'analysing';
+      e.stage = 'Starting';
+      e.fraction = 0;
+      const settings = resolveSettings(e.effectiveSettings());
+      const r = await this.bridge.analyze(
+        { id: e.id, settings, ops: e.ops, reuseLabels: mode === 'measure' },
+        (stage, fraction) => { e.stage = stage; e.fraction = fraction; },
+      );
+      this.accept(e, r);
+      if (mode !== 'measure') e.preview = null;
+    } catch (err) {
+      if (err instanceof SupersededError) return;
+      job.onFail?.();
+      const msg = err instanceof Error ? err.message : String(err);
+      if (err instanceof CancelledRunError || /cancelled/i.test(msg)) {
+        e.status = e.result ? 'done' : 'queued';
+        e.notice = 'Cancelled. Change a setting or press Analyse to run it again.';
+        e.stage = '';
+      } else if (job.onFail && e.result) {
+        // A failed edit: the earlier result stays, the message goes beside the edit buttons.
+        this.editMessage = msg;
+        e.status = 'done';
+      } else {
+        e.status = hadResult ? 'done' : 'error';
+        e.error = msg;
+        if (err instanceof WorkerCrashedError) e.error = msg;
+      }
+    } finally {
+      this.save(e);
+    }
+  }
+
+  private accept(e: Entry, r: AnalysisResult): void {
+    e.result?.overlay.outlines?.close();
+    e.result = r;
+    e.status = 'done';
+    e.error = null;
+    e.stage = '';
+    e.fraction = 1;
+    e.storedCount = r.analysis.tessellation.points.length / 2;
+  }
+
+  /** Re-runs the analysis of an entry (after an error or a cancel). */
+  retry(e: Entry): void {
+    e.error = null;
+    e.notice = null;
+    this.request(e, e.result ? 'measure' : 'segment', undefined, true);
+  }
+
+  save(e: Entry): void {
+    if (!this.entries.includes(e)) return;
+    saveEntry(e.toStored()).catch(() => {
+      this.banner = 'The session could not be saved (storage full or blocked); results stay on screen until you reload.';
+    });
+  }
+
+  persistSession(): void {
+    if (this.saveTimer) clearTimeout(this.saveTimer);
+    this.saveTimer = setTimeout(() => {
+      saveSession({
+        key: 'session', selectedId: this.selectedId, layers: $state.snapshot(this.layers) as Layers,
+        theme: this.theme, panel: this.panel, demoAdded: this.demoAdded,
+      }).catch(() => undefined);
+    }, 200);
+  }
+}

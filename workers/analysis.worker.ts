@@ -1,0 +1,297 @@
+/**
+ * The analysis worker: every heavy step of the web app runs here (decoding, opencv.js, measuring,
+ * tessellating, exports, and storing results in IndexedDB), so the page never blocks.
+ * opencv.js and the core load lazily, on the first call that needs them.
+ */
+import * as Comlink from 'comlink';
+import { zipSync } from 'fflate';
+import type {
+  AnalysisResult, AnalyzeRequest, ExportFile, ExportKind, OpenResult, Overlay, PreviewResult, ProgressFn, WorkerApi,
+} from './protocol';
+import type { Analysis } from '../src/core/analysis.types';
+import type { GreyImage, LabelImage } from '../src/core/types';
+import { resolveSettings, type SettingsInput } from '../src/core/settings';
+import { applyEdits } from '../src/core/edit/labels';
+import { openSessionDb } from '../src/ui/db';
+import { displayRgba, outlineRgba, cellBoxes, downscaleGrey, scaleSettings, collectTransfers, baseName } from './helpers';
+
+type AnalyzeModule = typeof import('../src/core/analyze');
+/** The core's export writers (the same functions the command line calls), found by name in src/core/export. */
+interface ExportModule {
+  cellsCsv(a: Analysis): string;
+  summaryJson(a: Analysis): string;
+  cellsGeoJson(a: Analysis): string;
+  overlaySvg(a: Analysis): string;
+  labelsPng(a: Analysis): Uint8Array;
+  settingsJson(s: Analysis['settings']): string;
+  summaryCsv(rows: { name: string; summary: Record<string, unknown> | null; error?: string }[]): string;
+}
+const exportModules = import.meta.glob('../src/core/export/*.ts');
+
+let analyzeMod: Promise<AnalyzeModule> | null = null;
+
+/** The core pipeline with opencv.js registered; loaded once, on first use. */
+function pipeline(onProgress?: ProgressFn): Promise<AnalyzeModule> {
+  if (!analyzeMod) {
+    analyzeMod = (async () => {
+      onProgress?.('Loading opencv.js', 0);
+      await import('../src/core/cv/browser');
+      const cvIndex = await import('../src/core/cv/index');
+      // loadCv resolves to a plain { cv } handle; awaiting it only waits for the WebAssembly runtime.
+      await cvIndex.loadCv();
+      onProgress?.('Loading opencv.js', 1);
+      return import('../src/core/analyze');
+    })();
+    analyzeMod.catch(() => { analyzeMod = null; });
+  }
+  return analyzeMod;
+}
+
+async function exporters(): Promise<ExportModule> {
+  const all: Record<string, unknown> = {};
+  for (const load of Object.values(exportModules)) Object.assign(all, await load());
+  const missing = (name: string) => () => { throw new Error(`This build has no ${name} writer yet.`); };
+  for (const k of ['cellsCsv', 'summaryJson', 'cellsGeoJson', 'overlaySvg', 'labelsPng', 'settingsJson', 'summaryCsv']) {
+    if (typeof all[k] !== 'function') all[k] = missing(k);
+  }
+  return all as unknown as ExportModule;
+}
+
+interface Opened {
+  name: string;
+  kind: 'image' | 'points';
+  image: GreyImage | null;
+  points: Float64Array | null;
+  width: number;
+  height: number;
+  umPerPxFromFile: number | null;
+}
+
+const opened = new Map<string, Opened>();
+const current = new Map<string, Analysis>();
+const bases = new Map<string, LabelImage>();
+const controllers = new Map<string, AbortController>();
+
+async function storedBytes(id: string): Promise<{ name: string; bytes: Uint8Array } | null> {
+  const db = await openSessionDb();
+  const rec = await db.get('images', id);
+  return rec ? { name: rec.name, bytes: rec.bytes } : null;
+}
+
+function isPointsFile(name: string, bytes: Uint8Array): boolean {
+  if (/\.(csv|txt)$/i.test(name)) return true;
+  // A text file without an image signature: treat as points only when it looks like numbers.
+  const head = new TextDecoder().decode(bytes.subarray(0, 64));
+  return /^[\s\w",;.\-+]*$/.test(head) && /\d/.test(head) && !/^\x89PNG|^II\*|^MM\0\*/.test(head) && bytes[0] !== 0xff;
+}
+
+async function bitmapOf(rgba: Uint8ClampedArray, width: number, height: number): Promise<ImageBitmap> {
+  return createImageBitmap(new ImageData(rgba as Uint8ClampedArray<ArrayBuffer>, width, height));
+}
+
+async function makeOverlay(a: Analysis): Promise<Overlay> {
+  if (!a.labels) return { outlines: null, cellBoxes: new Int32Array(0) };
+  const rgba = outlineRgba(a.labels);
+  return { outlines: await bitmapOf(rgba, a.labels.width, a.labels.height), cellBoxes: cellBoxes(a.labels) };
+}
+
+async function sendResult(id: string, a: Analysis, t0: number): Promise<AnalysisResult> {
+  const overlay = await makeOverlay(a);
+  // The worker keeps its own copy (for edits and exports); the page gets a transferred clone.
+  const copy = structuredClone(a);
+  const result: AnalysisResult = { id, analysis: copy, overlay, elapsedMs: performance.now() - t0 };
+  const transfers: Transferable[] = collectTransfers(copy);
+  transfers.push(overlay.cellBoxes.buffer as ArrayBuffer);
+  if (overlay.outlines) transfers.push(overlay.outlines);
+  return Comlink.transfer(result, transfers);
+}
+
+async function persist(id: string, a: Analysis, base: LabelImage | null): Promise<void> {
+  try {
+    const db = await openSessionDb();
+    await db.put('results', { id, analysis: a });
+    if (base) await db.put('base', { id, labels: base });
+  } catch (e) {
+    // A full disk must not lose the result on screen; the page says the session could not be saved.
+    console.warn('Tessellab: could not store the result', e);
+  }
+}
+
+async function ensureOpened(id: string): Promise<Opened> {
+  const o = opened.get(id);
+  if (o) return o;
+  throw new Error(`Image ${id} is not open in the worker; open it first.`);
+}
+
+const api: WorkerApi = {
+  async warmUp(onProgress) {
+    await pipeline(onProgress);
+  },
+
+  async open(id, name, bytes, maxPixels) {
+    let data = bytes;
+    if (!data) {
+      const rec = await storedBytes(id);
+      if (!rec) throw new Error(`${name}: the stored copy of this image is gone; add the file again.`);
+      data = rec.bytes;
+    } else {
+      const db = await openSessionDb();
+      await db.put('images', { id, name, bytes: data });
+    }
+    let o: Opened;
+    if (isPointsFile(name, data)) {
+      const { parsePointsCsv } = await import('../src/core/segment/points');
+      const p = parsePointsCsv(new TextDecoder().decode(data), { name });
+      // The field of a point set is the box from the origin to the farthest point, rounded up to whole px.
+      let mx = 0, my = 0;
+      for (let i = 0; i < p.points.length; i += 2) { mx = Math.max(mx, p.points[i]); my = Math.max(my, p.points[i + 1]); }
+      const width = Math.max(16, Math.ceil(mx) + 1), height = Math.max(16, Math.ceil(my) + 1);
+      o = { name, kind: 'points', image: null, points: p.points, width, height, umPerPxFromFile: null };
+    } else {
+      const { decodeImage } = await import('../src/core/image/decode');
+      const d = await decodeImage(data, { name, maxPixels });
+      const page = d.pages[0];
+      o = { name, kind: 'image', image: page, points: null, width: page.width, height: page.height, umPerPxFromFile: d.umPerPx };
+      opened.set(id, o);
+      const bitmap = await bitmapOf(displayRgba(page), page.width, page.height);
+      const r: OpenResult = {
+        id, kind: 'image', width: page.width, height: page.height, umPerPxFromFile: d.umPerPx, pages: d.pages.length,
+        wasColour: d.wasColour, bitDepth: page.bitDepth, bitmap,
+      };
+      return Comlink.transfer(r, [bitmap]);
+    }
+    opened.set(id, o);
+    return { id, kind: 'points', width: o.width, height: o.height, umPerPxFromFile: null, pages: 0, wasColour: false, bitDepth: 8, bitmap: null };
+  },
+
+  async analyze(req: AnalyzeRequest, onProgress?: ProgressFn) {
+    const t0 = performance.now();
+    const o = await ensureOpened(req.id);
+    controllers.get(req.id)?.abort();
+    const ctl = new AbortController();
+    controllers.set(req.id, ctl);
+    try {
+      const core = await pipeline(onProgress);
+      const opts = { onProgress: (s: string, f: number) => onProgress?.(s, f), signal: ctl.signal };
+      let base = bases.get(req.id) ?? null;
+      if (req.reuseLabels && !base) {
+        const db = await openSessionDb();
+        base = (await db.get('base', req.id))?.labels ?? null;
+      }
+      let a: Analysis;
+      let newBase: LabelImage | null = null;
+      const size = { width: o.width, height: o.height };
+      const fieldImage = (): GreyImage | null => {
+        if (!o.image) return null;
+        const s = resolveSettings(req.settings);
+        return core.cropImage(o.image, core.resolveField(s.field, o.width, o.height));
+      };
+      if (req.reuseLabels && base) {
+        const labels = applyEdits(base, req.ops ?? []);
+        a = await core.reanalyzeLabels(labels, fieldImage(), req.settings, size, opts);
+      } else {
+        const input = o.kind === 'points'
+          ? { kind: 'points' as const, points: o.points as Float64Array, width: o.width, height: o.height, name: o.name }
+          : { kind: 'image' as const, image: o.image as GreyImage, name: o.name };
+        a = await core.analyze(input, req.settings, opts);
+        newBase = a.labels;
+        if (newBase) bases.set(req.id, newBase);
+        if (newBase && req.ops && req.ops.length) {
+          a = await core.reanalyzeLabels(applyEdits(newBase, req.ops), fieldImage(), req.settings, size, opts);
+        }
+      }
+      current.set(req.id, a);
+      void persist(req.id, a, newBase);
+      return await sendResult(req.id, a, t0);
+    } finally {
+      if (controllers.get(req.id) === ctl) controllers.delete(req.id);
+    }
+  },
+
+  async preview(id: string, settings: SettingsInput, maxSide: number): Promise<PreviewResult> {
+    const o = await ensureOpened(id);
+    if (!o.image) return { id, outlines: null, count: 0, scale: 1 };
+    const core = await pipeline();
+    const f = Math.max(1, Math.ceil(Math.max(o.width, o.height) / maxSide));
+    const small = f === 1 ? o.image : downscaleGrey(o.image, f);
+    const a = await core.analyze({ kind: 'image', image: small, name: o.name }, scaleSettings(settings, f));
+    const outlines = a.labels ? await bitmapOf(outlineRgba(a.labels), a.labels.width, a.labels.height) : null;
+    const r: PreviewResult = { id, outlines, count: a.labels ? a.labels.count : 0, scale: f };
+    return Comlink.transfer(r, outlines ? [outlines] : []);
+  },
+
+  async restore(id: string) {
+    const t0 = performance.now();
+    const db = await openSessionDb();
+    const rec = await db.get('results', id);
+    if (!rec) return null;
+    current.set(id, rec.analysis);
+    const base = await db.get('base', id);
+    if (base) bases.set(id, base.labels);
+    return sendResult(id, rec.analysis, t0);
+  },
+
+  async exportFiles(id: string, kinds: ExportKind[]) {
+    const a = current.get(id) ?? (await (await openSessionDb()).get('results', id))?.analysis;
+    if (!a) throw new Error('This image has no result yet; analyse it first.');
+    const name = opened.get(id)?.name ?? (await storedBytes(id))?.name ?? id;
+    const files = await filesFor(a, baseName(name), kinds);
+    return Comlink.transfer(files, files.map((f) => f.bytes.buffer as ArrayBuffer));
+  },
+
+  async exportZip(ids: string[], kinds: ExportKind[]) {
+    const ex = await exporters();
+    const entries: Record<string, Uint8Array> = {};
+    const rows: { name: string; summary: Record<string, unknown> | null }[] = [];
+    const used = new Set<string>();
+    for (const id of ids) {
+      const a = current.get(id) ?? (await (await openSessionDb()).get('results', id))?.analysis;
+      if (!a) continue;
+      let stem = baseName(opened.get(id)?.name ?? (await storedBytes(id))?.name ?? id);
+      for (let k = 2; used.has(stem); k++) stem = `${baseName(opened.get(id)?.name ?? id)}-${k}`;
+      used.add(stem);
+      for (const f of await filesFor(a, stem, kinds.filter((k) => k !== 'settings.json'))) entries[`${stem}/${f.name}`] = f.bytes;
+      entries[`${stem}/settings.json`] = new TextEncoder().encode(ex.settingsJson(a.settings));
+      rows.push({ name: stem, summary: a.summary });
+    }
+    if (rows.length === 0) throw new Error('No image has a result yet; analyse one first.');
+    entries['summary.csv'] = new TextEncoder().encode(ex.summaryCsv(rows));
+    const zip = zipSync(entries, { level: 6 });
+    return Comlink.transfer(zip, [zip.buffer as ArrayBuffer]);
+  },
+
+  async forget(id: string) {
+    opened.delete(id);
+    current.delete(id);
+    bases.delete(id);
+    const db = await openSessionDb();
+    await Promise.all([db.delete('images', id), db.delete('results', id), db.delete('base', id)]);
+  },
+
+  cancel(id: string) {
+    controllers.get(id)?.abort();
+  },
+
+  crash() {
+    setTimeout(() => { throw new Error('Tessellab test: the worker was made to fail.'); }, 0);
+  },
+};
+
+async function filesFor(a: Analysis, stem: string, kinds: ExportKind[]): Promise<ExportFile[]> {
+  const ex = await exporters();
+  const enc = new TextEncoder();
+  const out: ExportFile[] = [];
+  for (const k of kinds) {
+    switch (k) {
+      case 'cells.csv': out.push({ name: `${stem}.cells.csv`, bytes: enc.encode(ex.cellsCsv(a)), mime: 'text/csv' }); break;
+      case 'summary.json': out.push({ name: `${stem}.summary.json`, bytes: enc.encode(ex.summaryJson(a)), mime: 'application/json' }); break;
+      case 'cells.geojson': out.push({ name: `${stem}.cells.geojson`, bytes: enc.encode(ex.cellsGeoJson(a)), mime: 'application/geo+json' }); break;
+      case 'overlay.svg': out.push({ name: `${stem}.overlay.svg`, bytes: enc.encode(ex.overlaySvg(a)), mime: 'image/svg+xml' }); break;
+      case 'labels.png': if (a.labels) out.push({ name: `${stem}.labels.png`, bytes: ex.labelsPng(a), mime: 'image/png' }); break;
+      case 'settings.json': out.push({ name: 'settings.json', bytes: enc.encode(ex.settingsJson(a.settings)), mime: 'application/json' }); break;
+    }
+  }
+  return out;
+}
+
+Comlink.expose(api);

@@ -1,0 +1,99 @@
+/**
+ * The contract between the page (src/ui/bridge.ts) and the analysis worker. Types only: both sides import
+ * this file, so a change in one is a compile error in the other.
+ */
+import type { Analysis } from '../src/core/analysis.types';
+import type { SettingsInput } from '../src/core/settings';
+import type { EditOp } from '../src/core/edit/labels';
+
+/** Progress report from the worker: stage name and fraction done in [0, 1]. */
+export type ProgressFn = (stage: string, fraction: number) => void;
+
+/** An error that crossed the worker boundary as plain data (class instances do not survive cloning). */
+export interface WireError {
+  kind: string;
+  message: string;
+}
+
+/** What opening an image gives the page: its size, tags and a display bitmap. */
+export interface OpenResult {
+  id: string;
+  kind: 'image' | 'points';
+  width: number;
+  height: number;
+  /** µm per px read from the file's tags, or null. */
+  umPerPxFromFile: number | null;
+  pages: number;
+  wasColour: boolean;
+  bitDepth: 8 | 16;
+  /** The (8-bit, contrast-stretched) image for the Bench; null for a points pattern. */
+  bitmap: ImageBitmap | null;
+}
+
+/** Helpers for drawing an analysis, made in the worker so the page does no per-pixel work. */
+export interface Overlay {
+  /** Cell outlines as an RGBA bitmap of the label image's size (transparent elsewhere); null for points. */
+  outlines: ImageBitmap | null;
+  /** Bounding box of each cell in the label image, 4 per cell: x0, y0, x1, y1 (px, exclusive end). */
+  cellBoxes: Int32Array;
+}
+
+/** A finished analysis as it reaches the page. */
+export interface AnalysisResult {
+  id: string;
+  analysis: Analysis;
+  overlay: Overlay;
+  /** Milliseconds spent in the worker. */
+  elapsedMs: number;
+}
+
+/** A quick look at the segmentation on a downscaled copy, while a slider moves. */
+export interface PreviewResult {
+  id: string;
+  /** Outlines of the downscaled labels; the Bench stretches them over the image. */
+  outlines: ImageBitmap | null;
+  count: number;
+  scale: number;
+}
+
+/** One file to save: a name and its bytes. */
+export interface ExportFile {
+  name: string;
+  bytes: Uint8Array;
+  mime: string;
+}
+
+/** The export formats the worker writes with the core's export functions. */
+export type ExportKind = 'cells.csv' | 'summary.json' | 'cells.geojson' | 'overlay.svg' | 'labels.png' | 'settings.json';
+
+export interface AnalyzeRequest {
+  id: string;
+  settings: SettingsInput;
+  /** Edits to replay on the fresh labels before measuring (kept when only the scale changed). */
+  ops?: EditOp[];
+  /** Re-measure the stored labels instead of segmenting again (scale change, edits). */
+  reuseLabels?: boolean;
+}
+
+export interface WorkerApi {
+  /** Loads opencv.js (lazily; the page calls it early so that it loads while the person looks around). */
+  warmUp(onProgress?: ProgressFn): Promise<void>;
+  /** Decodes an image (bytes given, or the copy stored in IndexedDB) and keeps it for later calls. */
+  open(id: string, name: string, bytes: Uint8Array | null, maxPixels: number): Promise<OpenResult>;
+  /** Analyses an opened image; the result is also stored in IndexedDB. */
+  analyze(req: AnalyzeRequest, onProgress?: ProgressFn): Promise<AnalysisResult>;
+  /** Segments a downscaled copy for the live preview. */
+  preview(id: string, settings: SettingsInput, maxSide: number): Promise<PreviewResult>;
+  /** The stored result of an earlier session, or null. */
+  restore(id: string): Promise<AnalysisResult | null>;
+  /** Files of the current result of one image. */
+  exportFiles(id: string, kinds: ExportKind[]): Promise<ExportFile[]>;
+  /** One zip of every listed image's files plus summary.csv and settings.json. */
+  exportZip(ids: string[], kinds: ExportKind[]): Promise<Uint8Array>;
+  /** Forgets an image and deletes its stored copies. */
+  forget(id: string): Promise<void>;
+  /** Cancels a running analysis of `id` at the next stage boundary. */
+  cancel(id: string): void;
+  /** For tests of the crash recovery: throws outside any call, which kills the worker's event loop task. */
+  crash(): void;
+}
