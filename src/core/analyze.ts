@@ -4,6 +4,7 @@
  * Each stage is one function; progress is reported through a callback; an AbortSignal cancels between stages.
  */
 import type { Analysis } from './analysis.types';
+import { cellOutlines, type Polygons } from './cv/contours';
 import { loadCv } from './cv/index';
 import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TooFewCellsError } from './errors';
 import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
@@ -262,4 +263,11 @@ function analyzePoints(points: Float64Array, width: number, height: number, sett
   const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
   progress('statistics', 1);
   return { width, height, field, settings, labels: null, columns, tessellation: tess, summary };
+}
+
+/** The segmented cells' outlines (image px), or null for a points pattern. Loads opencv.js if needed. */
+export async function outlinesOf(analysis: Analysis): Promise<Polygons | null> {
+  if (!analysis.labels) return null;
+  const { cv } = await loadCv();
+  return cellOutlines(cv, analysis.labels, analysis.field.x0, analysis.field.y0);
 }

@@ -64,7 +64,7 @@ function fill(o: SynthOptions): Required<SynthOptions> {
     cellContrast: 12,
     bodyRadiusFactor: 1.2,
     bitDepth: 8,
-    ...o,
+    ...(Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as SynthOptions),
   };
 }
 

@@ -1,0 +1,125 @@
+/**
+ * `tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR]`
+ * For each image: <stem>.cells.csv, .summary.json, .cells.geojson, .overlay.svg, .labels.png; for the run:
+ * settings.json and summary.csv. A bad image gets one line on stderr; the others are still analysed.
+ */
+import { readFile } from 'node:fs/promises';
+import { basename, extname } from 'node:path';
+import { analyze, outlinesOf } from '../../core/analyze';
+import { describeError, SettingsError } from '../../core/errors';
+import { cellsCsv, cellsGeoJson, labelsPng, overlaySvg, settingsJson, summaryCsv, summaryJson } from '../../core/export/index';
+import { decodeImage } from '../../core/image/decode';
+import { resolvePixelSize } from '../../core/image/calibration';
+import { parsePointsCsv } from '../../core/segment/points';
+import { resolveSettings, type SettingsInput } from '../../core/settings';
+import type { Command } from '../main';
+import { parseArgs, parseSize, positiveNumber } from '../args';
+import { ensureOutDir, writeOut } from '../files';
+
+const USAGE =
+  'tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json] [--events FILE.csv] [--size WxH (points)]';
+
+export const command: Command = {
+  name: 'analyze',
+  summary: 'Segment cells, measure them, tessellate their centroids and compare with random seeding.',
+  usage: USAGE,
+  async run(argv) {
+    const a = parseArgs(argv, ['pattern', 'um-per-px', 'out', 'settings', 'events', 'size']);
+    if (a.positional.length === 0) throw new SettingsError(`No input given. Usage: ${USAGE}`);
+    let input: SettingsInput = {};
+    if (a.options.has('settings')) {
+      const f = a.options.get('settings')!;
+      let text: string;
+      try {
+        text = await readFile(f, 'utf8');
+      } catch {
+        throw new SettingsError(`Cannot read the settings file ${f}; check the path.`);
+      }
+      try {
+        input = JSON.parse(text) as SettingsInput;
+      } catch {
+        throw new SettingsError(`The settings file ${f} is not valid JSON.`);
+      }
+    }
+    if (a.options.has('pattern')) input.pattern = a.options.get('pattern') as SettingsInput['pattern'];
+    const userUm = a.options.has('um-per-px') ? positiveNumber(a.options.get('um-per-px')!, 'um-per-px') : (input.umPerPx ?? null);
+    const base = resolveSettings(input);
+    const outDir = a.options.get('out') ?? '.';
+    await ensureOutDir(outDir);
+    let events: Float64Array | undefined;
+    if (a.options.has('events')) {
+      const f = a.options.get('events')!;
+      events = parsePointsCsv(await readText(f), { name: basename(f) }).points;
+    }
+    const files = a.positional;
+    const rows: { name: string; summary: Record<string, unknown> | null; error?: string }[] = [];
+    let failed = 0;
+    let lastSettings = base;
+    for (let i = 0; i < files.length; i++) {
+      const file = files[i]!;
+      const name = basename(file);
+      const stem = basename(file, extname(file));
+      const say = (stage: string) => process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${stage}\n`);
+      try {
+        say('reading');
+        let analysis;
+        if (base.pattern === 'points') {
+          const pts = parsePointsCsv(await readText(file), { name });
+          const size = a.options.has('size') ? parseSize(a.options.get('size')!) : boundsOf(pts.points);
+          const settings = { ...base, umPerPx: userUm };
+          analysis = await analyze({ kind: 'points', points: pts.points, width: size[0], height: size[1], name }, settings, { events, onProgress: (s, f) => f === 0 && say(s) });
+        } else {
+          const bytes = await readBytes(file);
+          const img = await decodeImage(bytes, { name });
+          if (img.pages.length > 1) process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${img.pages.length} pages; analysing the first (use kinetics for a series)\n`);
+          const px = resolvePixelSize(userUm, img.umPerPx);
+          const settings = { ...base, umPerPx: px.umPerPx };
+          analysis = await analyze({ kind: 'image', image: img.pages[0]!, name }, settings, { events, onProgress: (s, f) => f === 0 && say(s) });
+          (analysis.summary as Record<string, unknown>).calibration = { source: px.source };
+        }
+        lastSettings = analysis.settings;
+        say('writing');
+        const outlines = await outlinesOf(analysis);
+        await writeOut(outDir, `${stem}.cells.csv`, cellsCsv(analysis));
+        await writeOut(outDir, `${stem}.summary.json`, summaryJson(analysis, { image: name }));
+        await writeOut(outDir, `${stem}.cells.geojson`, cellsGeoJson(analysis, outlines));
+        await writeOut(outDir, `${stem}.overlay.svg`, overlaySvg(analysis, outlines));
+        if (analysis.labels) await writeOut(outDir, `${stem}.labels.png`, labelsPng(analysis));
+        const s = analysis.summary as { cells: { count: number; interior: number } };
+        say(`done: ${s.cells.count} cells (${s.cells.interior} interior)`);
+        rows.push({ name, summary: analysis.summary });
+      } catch (e) {
+        failed++;
+        const msg = describeError(e);
+        process.stderr.write(`tessellab analyze: ${msg.startsWith(name) ? msg : `${name}: ${msg}`}\n`);
+        if (process.env.TESSELLAB_DEBUG && e instanceof Error) process.stderr.write(`${e.stack}\n`);
+        rows.push({ name, summary: null, error: msg });
+      }
+    }
+    await writeOut(outDir, 'settings.json', settingsJson({ ...lastSettings, umPerPx: userUm ?? lastSettings.umPerPx }));
+    await writeOut(outDir, 'summary.csv', summaryCsv(rows));
+    if (failed) process.stderr.write(`${failed} of ${files.length} input${files.length === 1 ? '' : 's'} failed; the others were written to ${outDir}.\n`);
+    return failed ? 1 : 0;
+  },
+};
+
+async function readBytes(file: string): Promise<Uint8Array> {
+  try {
+    return new Uint8Array(await readFile(file));
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new SettingsError(code === 'ENOENT' ? `${file} does not exist; check the path.` : code === 'EISDIR' ? `${file} is a folder, not an image.` : `cannot read ${file} (${code ?? 'error'}).`);
+  }
+}
+
+async function readText(file: string): Promise<string> {
+  return new TextDecoder().decode(await readBytes(file));
+}
+
+/** Field of a point set without a given size: from 0 to the largest coordinate, rounded up. */
+function boundsOf(p: Float64Array): [number, number] {
+  let mx = 0;
+  let my = 0;
+  for (let i = 0; i < p.length; i += 2) (mx = Math.max(mx, p[i]!)), (my = Math.max(my, p[i + 1]!));
+  return [Math.max(1, Math.ceil(mx)), Math.max(1, Math.ceil(my))];
+}

@@ -1,0 +1,5 @@
+export { cellsCsv, summaryCsv, flattenSummary, formatNumber, SUMMARY_CSV_KEYS } from './csv';
+export { summaryJson, settingsJson } from './json';
+export { cellsGeoJson, overlaySvg, type OverlayStyle } from './geometry';
+export { labelsPng } from './labels';
+export { drawPolygons, drawVoronoi, drawDelaunay, drawCentroids, SvgPath, type PathSink } from './path';

@@ -1,0 +1,81 @@
+/**
+ * Overlay drawing into anything with moveTo / lineTo (a canvas 2D context, an SVG path builder, a test
+ * recorder), so one renderer serves the Bench, the SVG export and the tests.
+ */
+import type { Tessellation } from '../tessellate/types';
+
+export interface PathSink {
+  moveTo(x: number, y: number): void;
+  lineTo(x: number, y: number): void;
+  closePath(): void;
+}
+
+/** Closed polygons in CSR form (offsets per polygon, interleaved coordinates). */
+export function drawPolygons(sink: PathSink, offsets: Int32Array, coords: Float64Array, only?: (i: number) => boolean): void {
+  for (let i = 0; i + 1 < offsets.length; i++) {
+    if (only && !only(i)) continue;
+    const a = offsets[i]!;
+    const b = offsets[i + 1]!;
+    if (b - a < 2) continue;
+    sink.moveTo(coords[2 * a]!, coords[2 * a + 1]!);
+    for (let k = a + 1; k < b; k++) sink.lineTo(coords[2 * k]!, coords[2 * k + 1]!);
+    sink.closePath();
+  }
+}
+
+/** Voronoi cells of the tessellation (clipped polygons). */
+export function drawVoronoi(sink: PathSink, t: Tessellation): void {
+  drawPolygons(sink, t.polygonOffsets, t.polygonCoords);
+}
+
+/** Delaunay edges, each drawn once. */
+export function drawDelaunay(sink: PathSink, t: Tessellation): void {
+  const tri = t.triangles;
+  const p = t.points;
+  const n = p.length / 2;
+  const done = new Set<number>();
+  for (let i = 0; i < tri.length; i += 3) {
+    for (let k = 0; k < 3; k++) {
+      const a = tri[i + k]!;
+      const b = tri[i + ((k + 1) % 3)]!;
+      const key = a < b ? a * n + b : b * n + a;
+      if (done.has(key)) continue;
+      done.add(key);
+      sink.moveTo(p[2 * a]!, p[2 * a + 1]!);
+      sink.lineTo(p[2 * b]!, p[2 * b + 1]!);
+    }
+  }
+}
+
+/** Small crosses at the centroids, half-size r. */
+export function drawCentroids(sink: PathSink, points: Float64Array, r = 2): void {
+  for (let i = 0; i < points.length; i += 2) {
+    const x = points[i]!;
+    const y = points[i + 1]!;
+    sink.moveTo(x - r, y);
+    sink.lineTo(x + r, y);
+    sink.moveTo(x, y - r);
+    sink.lineTo(x, y + r);
+  }
+}
+
+/** Builds an SVG path `d` string, coordinates rounded to 0.01 px. */
+export class SvgPath implements PathSink {
+  private parts: string[] = [];
+  moveTo(x: number, y: number): void {
+    this.parts.push(`M${r2(x)} ${r2(y)}`);
+  }
+  lineTo(x: number, y: number): void {
+    this.parts.push(`L${r2(x)} ${r2(y)}`);
+  }
+  closePath(): void {
+    this.parts.push('Z');
+  }
+  toString(): string {
+    return this.parts.join('');
+  }
+}
+
+function r2(v: number): string {
+  return String(Math.round(v * 100) / 100);
+}
