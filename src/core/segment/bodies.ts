@@ -3,7 +3,7 @@
  * Validate -> convert -> kernels -> label image (0 = background).
  *
  * 1. Smooth and stretch (no flattening by default: bodies can be large relative to the field).
- * 2. Threshold (Otsu by default). The background is the class that holds most of the image border,
+ * 2. Threshold (Otsu by default). The bodies are the class that falls into more separate components,
  *    unless the polarity is set.
  * 3. Fill holes: background components that do not reach the border become body.
  * 4. Split touching bodies: markers are the peaks of the distance transform (pixels equal to the maximum
@@ -39,11 +39,14 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
   }
   let polarity = s.polarity;
   if (polarity === 'auto') {
-    let border = 0;
-    let bright = 0;
-    for (let x = 0; x < w; x++) (bright += mask[x]! + mask[(h - 1) * w + x]!), (border += 2);
-    for (let y = 1; y < h - 1; y++) (bright += mask[y * w]! + mask[y * w + w - 1]!), (border += 2);
-    polarity = bright > border / 2 ? 'dark' : 'bright';
+    // Bodies are many separate objects; the background is few large connected regions (often one).
+    // So the class that falls into more sizeable components is the bodies. Neither the border nor the
+    // area fraction is a safe cue: dense bodies can cover most of the border and most of the image.
+    const inv = new Uint8Array(mask.length);
+    for (let i = 0; i < mask.length; i++) inv[i] = 1 - mask[i]!;
+    const nBright = sizeable(connectedComponents(cv, mask, w, h, 8).areas);
+    const nDark = sizeable(connectedComponents(cv, inv, w, h, 8).areas);
+    polarity = nBright >= nDark ? 'bright' : 'dark';
   }
   if (polarity === 'dark') for (let i = 0; i < mask.length; i++) mask[i] = 1 - mask[i]!;
   if (s.fillHoles) fillHoles(cv, mask, w, h);
@@ -98,6 +101,13 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
   const count = relabelSequential(labels, maxLabel);
   if (count === 0) throw new NoCellsError(`No bodies found larger than the minimum area of ${minArea} px²; lower the minimum cell area or check the threshold.`);
   return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
+}
+
+/** Number of components of at least 9 px (specks of noise do not count). */
+function sizeable(areas: Int32Array): number {
+  let n = 0;
+  for (let i = 1; i < areas.length; i++) if (areas[i]! >= 9) n++;
+  return n;
 }
 
 /** Sets to 1 every 0-region of the mask that does not reach the image border. */
