@@ -21,6 +21,11 @@ function items(): ManifestItem[] {
   return [];
 }
 
+function demoName(): string | null {
+  const m = Object.values(manifests)[0] as Record<string, unknown> | undefined;
+  return m && typeof m.demo === 'string' ? m.demo : null;
+}
+
 function num(v: unknown): number | null {
   return typeof v === 'number' && Number.isFinite(v) && v > 0 ? v : null;
 }
@@ -34,18 +39,23 @@ export function sampleImages(): DemoImage[] {
     const file = String(it.file ?? it.name ?? it.path ?? '').split('/').pop() as string;
     const url = byName.get(file);
     if (!url) continue;
-    const pattern = it.pattern === 'walls' || it.pattern === 'bodies' || it.pattern === 'points' ? it.pattern : undefined;
+    const fromCommand = /--pattern\s+(walls|bodies)/.exec(String(it.command ?? ''))?.[1];
+    const p = it.pattern ?? fromCommand;
+    const pattern = p === 'walls' || p === 'bodies' || p === 'points' ? p : undefined;
     const settings = (it.settings && typeof it.settings === 'object' ? (it.settings as Partial<Settings>) : pattern ? ({ pattern } as Partial<Settings>) : undefined);
     const d: DemoImage = { name: file, url, umPerPx: num(it.umPerPx) ?? num(it.um_per_px) ?? num(it.pixelSizeUm), settings };
-    if (it.demo === true) out.unshift(d); else out.push(d);
+    if (it.demo === true || demoName() === file) out.unshift(d); else out.push(d);
   }
   for (const [name, url] of byName) if (!out.some((d) => d.name === name) && !name.endsWith('.csv')) out.push({ name, url, umPerPx: null });
   return out;
 }
 
-/** Fetches the demo image (same origin). */
-export async function loadDemo(): Promise<{ name: string; bytes: Uint8Array; umPerPx: number | null; settings?: Partial<Settings> } | null> {
-  const d = sampleImages()[0];
+export interface LoadedSample { name: string; bytes: Uint8Array; umPerPx: number | null; settings?: Partial<Settings> }
+
+/** Fetches a sample image by name (same origin), or the demo when no name is given. */
+export async function loadDemo(name?: string): Promise<LoadedSample | null> {
+  const all = sampleImages();
+  const d = name ? all.find((x) => x.name === name) : all[0];
   if (!d) return null;
   const res = await fetch(d.url);
   if (!res.ok) throw new Error(`${d.name}: HTTP ${res.status}`);
