@@ -16,17 +16,6 @@ import { openSessionDb } from '../src/ui/db';
 import { displayRgba, outlineRgba, cellBoxes, downscaleGrey, scaleSettings, collectTransfers, baseName } from './helpers';
 
 type AnalyzeModule = typeof import('../src/core/analyze');
-/** The core's export writers (the same functions the command line calls), found by name in src/core/export. */
-interface ExportModule {
-  cellsCsv(a: Analysis): string;
-  summaryJson(a: Analysis): string;
-  cellsGeoJson(a: Analysis): string;
-  overlaySvg(a: Analysis): string;
-  labelsPng(a: Analysis): Uint8Array;
-  settingsJson(s: Analysis['settings']): string;
-  summaryCsv(rows: { name: string; summary: Record<string, unknown> | null; error?: string }[]): string;
-}
-const exportModules = import.meta.glob('../src/core/export/*.ts');
 
 let analyzeMod: Promise<AnalyzeModule> | null = null;
 
@@ -47,14 +36,8 @@ function pipeline(onProgress?: ProgressFn): Promise<AnalyzeModule> {
   return analyzeMod;
 }
 
-async function exporters(): Promise<ExportModule> {
-  const all: Record<string, unknown> = {};
-  for (const load of Object.values(exportModules)) Object.assign(all, await load());
-  const missing = (name: string) => () => { throw new Error(`This build has no ${name} writer yet.`); };
-  for (const k of ['cellsCsv', 'summaryJson', 'cellsGeoJson', 'overlaySvg', 'labelsPng', 'settingsJson', 'summaryCsv']) {
-    if (typeof all[k] !== 'function') all[k] = missing(k);
-  }
-  return all as unknown as ExportModule;
+function exporters(): Promise<typeof import('../src/core/export/index')> {
+  return import('../src/core/export/index');
 }
 
 interface Opened {
@@ -200,6 +183,8 @@ const api: WorkerApi = {
           a = await core.reanalyzeLabels(applyEdits(newBase, req.ops), fieldImage(), req.settings, size, opts);
         }
       }
+      // As the command line records it: where the pixel size came from.
+      if (o.kind === 'image') (a.summary as Record<string, unknown>).calibration = { source: req.calibrationSource ?? 'none' };
       current.set(req.id, a);
       void persist(req.id, a, newBase);
       return await sendResult(req.id, a, t0);
@@ -235,7 +220,7 @@ const api: WorkerApi = {
     const a = current.get(id) ?? (await (await openSessionDb()).get('results', id))?.analysis;
     if (!a) throw new Error('This image has no result yet; analyse it first.');
     const name = opened.get(id)?.name ?? (await storedBytes(id))?.name ?? id;
-    const files = await filesFor(a, baseName(name), kinds);
+    const files = await filesFor(a, name, kinds);
     return Comlink.transfer(files, files.map((f) => f.bytes.buffer as ArrayBuffer));
   },
 
@@ -247,12 +232,12 @@ const api: WorkerApi = {
     for (const id of ids) {
       const a = current.get(id) ?? (await (await openSessionDb()).get('results', id))?.analysis;
       if (!a) continue;
-      let stem = baseName(opened.get(id)?.name ?? (await storedBytes(id))?.name ?? id);
-      for (let k = 2; used.has(stem); k++) stem = `${baseName(opened.get(id)?.name ?? id)}-${k}`;
-      used.add(stem);
-      for (const f of await filesFor(a, stem, kinds.filter((k) => k !== 'settings.json'))) entries[`${stem}/${f.name}`] = f.bytes;
-      entries[`${stem}/settings.json`] = new TextEncoder().encode(ex.settingsJson(a.settings));
-      rows.push({ name: stem, summary: a.summary });
+      const name = opened.get(id)?.name ?? (await storedBytes(id))?.name ?? id;
+      let dir = baseName(name);
+      for (let k = 2; used.has(dir); k++) dir = `${baseName(name)}-${k}`;
+      used.add(dir);
+      for (const f of await filesFor(a, name, kinds)) entries[`${dir}/${f.name}`] = f.bytes;
+      rows.push({ name, summary: a.summary });
     }
     if (rows.length === 0) throw new Error('No image has a result yet; analyse one first.');
     entries['summary.csv'] = new TextEncoder().encode(ex.summaryCsv(rows));
@@ -277,16 +262,23 @@ const api: WorkerApi = {
   },
 };
 
-async function filesFor(a: Analysis, stem: string, kinds: ExportKind[]): Promise<ExportFile[]> {
+/**
+ * The files `tessellab analyze` writes for one image, written by the same core functions with the same
+ * arguments, so that they equal the command line's byte for byte.
+ */
+async function filesFor(a: Analysis, fileName: string, kinds: ExportKind[]): Promise<ExportFile[]> {
   const ex = await exporters();
+  const stem = baseName(fileName);
   const enc = new TextEncoder();
+  const needOutlines = kinds.includes('cells.geojson') || kinds.includes('overlay.svg');
+  const outlines = needOutlines ? await (await pipeline()).outlinesOf(a) : null;
   const out: ExportFile[] = [];
   for (const k of kinds) {
     switch (k) {
       case 'cells.csv': out.push({ name: `${stem}.cells.csv`, bytes: enc.encode(ex.cellsCsv(a)), mime: 'text/csv' }); break;
-      case 'summary.json': out.push({ name: `${stem}.summary.json`, bytes: enc.encode(ex.summaryJson(a)), mime: 'application/json' }); break;
-      case 'cells.geojson': out.push({ name: `${stem}.cells.geojson`, bytes: enc.encode(ex.cellsGeoJson(a)), mime: 'application/geo+json' }); break;
-      case 'overlay.svg': out.push({ name: `${stem}.overlay.svg`, bytes: enc.encode(ex.overlaySvg(a)), mime: 'image/svg+xml' }); break;
+      case 'summary.json': out.push({ name: `${stem}.summary.json`, bytes: enc.encode(ex.summaryJson(a, { image: fileName })), mime: 'application/json' }); break;
+      case 'cells.geojson': out.push({ name: `${stem}.cells.geojson`, bytes: enc.encode(ex.cellsGeoJson(a, outlines)), mime: 'application/geo+json' }); break;
+      case 'overlay.svg': out.push({ name: `${stem}.overlay.svg`, bytes: enc.encode(ex.overlaySvg(a, outlines)), mime: 'image/svg+xml' }); break;
       case 'labels.png': if (a.labels) out.push({ name: `${stem}.labels.png`, bytes: ex.labelsPng(a), mime: 'image/png' }); break;
       case 'settings.json': out.push({ name: 'settings.json', bytes: enc.encode(ex.settingsJson(a.settings)), mime: 'application/json' }); break;
     }

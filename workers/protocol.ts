@@ -73,6 +73,8 @@ export interface AnalyzeRequest {
   ops?: EditOp[];
   /** Re-measure the stored labels instead of segmenting again (scale change, edits). */
   reuseLabels?: boolean;
+  /** Where the pixel size came from, recorded in the summary as the command line does. */
+  calibrationSource?: 'user' | 'file' | 'none';
 }
 
 export interface WorkerApi {

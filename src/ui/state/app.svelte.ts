@@ -402,7 +402,10 @@ export class AppState {
       e.fraction = 0;
       const settings = resolveSettings(e.effectiveSettings());
       const r = await this.bridge.analyze(
-        { id: e.id, settings, ops: e.ops, reuseLabels: mode === 'measure' },
+        {
+          id: e.id, settings, ops: e.ops, reuseLabels: mode === 'measure',
+          calibrationSource: e.settings.umPerPx !== null ? 'user' : e.umPerPxFromFile !== null ? 'file' : 'none',
+        },
         (stage, fraction) => { e.stage = stage; e.fraction = fraction; },
       );
       this.accept(e, r);
