@@ -25,7 +25,7 @@ export interface CellSums {
   ymax: Int32Array;
   /** 1 if the cell has a pixel on the image border. */
   edge: Uint8Array;
-  /** Marching-squares contour length at the half level (px). */
+  /** Weighted marching-squares contour length at the half level (px); see PERIMETER_WEIGHT_*. */
   perimeter: Float64Array;
   /** Convex hull area of the cell's pixel squares (px²). */
   hullArea: Float64Array;
@@ -34,9 +34,19 @@ export interface CellSums {
   neighbourIndex: Int32Array;
 }
 
-const HALF_DIAG = Math.SQRT1_2;
 /**
- * Marching-squares segment length for a 2x2 window, by the 4-bit mask of corners inside the cell
+ * Weights of the two kinds of marching-squares segment. Plain marching squares (1 for a straight segment,
+ * √2/2 for a corner cut) overestimates the length of a digitised straight boundary by up to 8 % (at
+ * 26.6°) and a disc's perimeter by about 5 %. A boundary at angle θ ∈ [0°, 45°] yields per unit length
+ * (cos θ − sin θ) straight segments and 2 sin θ corner segments; the weights below are the least-squares
+ * fit of w₁(cos θ − sin θ) + w₂·2 sin θ = 1 over θ uniform in [0°, 45°] (derived; the same design idea as
+ * Koplowitz & Bruckstein 1989, IEEE Trans. PAMI 11:611; pub, memory). Unbiased on average over
+ * orientations (mean 0.9995), within −5.2 % / +2.6 % for any one orientation.
+ */
+export const PERIMETER_WEIGHT_STRAIGHT = 0.947544;
+export const PERIMETER_WEIGHT_CORNER = 0.670015;
+/**
+ * Weighted segment length for a 2x2 window, by the 4-bit mask of corners inside the cell
  * (bit 0 top-left, 1 top-right, 2 bottom-left, 3 bottom-right). Saddles (diagonal pairs) are read as two
  * separate corners, which matches 4-connected cells.
  */
@@ -44,8 +54,8 @@ const MS_LEN = (() => {
   const t = new Float64Array(16);
   for (let m = 0; m < 16; m++) {
     const bits = (m & 1) + ((m >> 1) & 1) + ((m >> 2) & 1) + ((m >> 3) & 1);
-    if (bits === 1 || bits === 3) t[m] = HALF_DIAG;
-    else if (bits === 2) t[m] = m === 0b1001 || m === 0b0110 ? 2 * HALF_DIAG : 1;
+    if (bits === 1 || bits === 3) t[m] = PERIMETER_WEIGHT_CORNER;
+    else if (bits === 2) t[m] = m === 0b1001 || m === 0b0110 ? 2 * PERIMETER_WEIGHT_CORNER : PERIMETER_WEIGHT_STRAIGHT;
   }
   return t;
 })();
@@ -219,7 +229,7 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
 
   for (let i = 0; i < fourWay.length; i += 6) {
     const k = resolveFourWay(img, fourWay[i]! + 1, fourWay[i + 1]! + 1, fourWay[i + 2]!, fourWay[i + 3]!, fourWay[i + 4]!, fourWay[i + 5]!, stride);
-    if (!pairs.has(k)) pairs.set(k, 0);
+    if (k >= 0 && !pairs.has(k)) pairs.set(k, 0);
   }
 
   // Neighbour CSR from the pair set.
@@ -279,7 +289,7 @@ const FOUR_WAY_RADIUS = 6;
  * the two cells that shared the lost wall each lose a corner: their angles at the merged point are the
  * sums of their two angles less 180°, so they are the sharper ones. Each cell's angle is read as its share
  * of a disc of radius 6 px around the point; the diagonal pair with the smaller share is joined.
- * @returns the pair key of the joined pair
+ * @returns the pair key of the joined pair, or −1 when the shares are too even to tell
  */
 function resolveFourWay(img: LabelImage, px: number, py: number, a: number, b: number, c: number, d: number, stride: number): number {
   const { width: w, height: h, labels: L } = img;
@@ -298,6 +308,10 @@ function resolveFourWay(img: LabelImage, px: number, py: number, a: number, b: n
       else if (l === d) nd++;
     }
   }
-  return na + nd <= nb + nc ? (a < d ? a * stride + d : d * stride + a) : b < c ? b * stride + c : c * stride + b;
+  // A true four-way point (equal shares, as in a square grid) joins neither pair.
+  const ad = na + nd;
+  const bc = nb + nc;
+  if (ad === bc) return -1;
+  return ad < bc ? (a < d ? a * stride + d : d * stride + a) : b < c ? b * stride + c : c * stride + b;
 }
 
