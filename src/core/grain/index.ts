@@ -284,7 +284,7 @@ export function grainSize(input: GrainSizeInput): GrainSizeResult {
   if (G !== null && !Number.isFinite(G)) G = null;
   const notes: string[] = [
     'A pixel counts as inside a test figure when its centre does; a grain touching the field border is counted as cut (it may continue beyond the field).',
-    'Intersections: a crossing counts 1, a pass through a triple point 1.5, a tangent hit 1; grain segments shorter than 1 px are part of the boundary.',
+    'Intersections: a crossing counts 1, a pass through a triple point 1.5, a tangent hit 1; grain segments shorter than 2 px are part of the boundary (a digitised boundary is a staircase).',
     'The 95 % interval of G is G + log₂(1 ∓ %RA/100) for the planimetric method and G + 2·log₂(1 ∓ %RA/100) for the intercept method, %RA = 100·t·s/(√n·x̄) over the test placements.',
     'Per-grain G uses the mean-area form on each grain; wall pixels are shared out over the grains.',
   ];

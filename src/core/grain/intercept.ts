@@ -119,8 +119,8 @@ interface Run {
   end: number;
 }
 
-/** Whether another grain than a and b lies in the pixels around (x, y) within `half` px (square). */
-function thirdGrainNear(labels: LabelImage, field: Rect, x: number, y: number, half: number, a: number, b: number): boolean {
+/** Whether a grain other than the `known` ones lies in the pixels around (x, y) within `half` px (square). */
+function thirdGrainNear(labels: LabelImage, field: Rect, x: number, y: number, half: number, known: readonly number[]): boolean {
   const w = labels.width;
   const xa = Math.max(field.x0, Math.floor(x - half));
   const xb = Math.min(field.x1 - 1, Math.floor(x + half));
@@ -129,7 +129,7 @@ function thirdGrainNear(labels: LabelImage, field: Rect, x: number, y: number, h
   for (let yy = ya; yy <= yb; yy++) {
     for (let xx = xa; xx <= xb; xx++) {
       const l = labels.labels[yy * w + xx]!;
-      if (l > 0 && l !== a && l !== b) return true;
+      if (l > 0 && !known.includes(l)) return true;
     }
   }
   return false;
@@ -204,7 +204,12 @@ function countOne(labels: LabelImage, field: Rect, p: TestPattern, tauPx: number
       if (r.label === 0) wallLen += (r.end - r.start) * stepPx;
       else if (r.label !== A.label && r.label !== B.label) third = true;
     }
-    if (!third) third = thirdGrainNear(labels, field, x, y, 0.5 + wallLen / 2, A.label, B.label);
+    if (!third) {
+      // A grain the line visits just before A or just after B is a resolved neighbour crossing, not a triple point.
+      const before = closed || k > 0 ? runs[longIdx[(k - 1 + longIdx.length) % longIdx.length]!]!.label : -1;
+      const after = closed || k + 2 < longIdx.length ? runs[longIdx[(k + 2) % longIdx.length]!]!.label : -1;
+      third = thirdGrainNear(labels, field, x, y, 0.5 + wallLen / 2, [A.label, B.label, before, after]);
+    }
     crossings.push(third ? { x, y, weight: 1.5, kind: 'triple' } : { x, y, weight: 1, kind: 'cross' });
   }
   let P = 0;
@@ -223,10 +228,10 @@ function countOne(labels: LabelImage, field: Rect, p: TestPattern, tauPx: number
  * @param labels label image (0 wall, 1..count grains)
  * @param field analysed rectangle (whole px)
  * @param patterns test lines and circles (px), inside the field (e.g. from {@link testPatterns})
- * @param tauPx grain segments shorter than this (px) are treated as part of a boundary; default 1
+ * @param tauPx grain segments shorter than this (px) are treated as part of a boundary; default 2 (a digitised boundary is a staircase that a slanted line can cross several times within a pixel or two)
  * @returns per pattern P, N, length (px) and the crossing points with their weights; totals
  */
-export function interceptCount(labels: LabelImage, field: Rect, patterns: readonly TestPattern[], tauPx = 1): InterceptCount {
+export function interceptCount(labels: LabelImage, field: Rect, patterns: readonly TestPattern[], tauPx = 2): InterceptCount {
   checkLabelsAndField(labels, field);
   if (!(tauPx >= 0)) throw new SettingsError(`The shortest grain segment must be 0 px or more; got ${tauPx}.`);
   for (const p of patterns) checkPatternInField(p, field);
