@@ -1,0 +1,244 @@
+/**
+ * End-to-end tests of the web app in headless Chromium (playwright-core, the system browser). The app is
+ * built and served from a loopback port; the checks compare the page with the command line run on the
+ * same file, so the reference is the project's own `tessellab analyze`, and the image comes from the
+ * project's generator.
+ */
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { unzipSync, strFromU8 } from 'fflate';
+import type { BrowserContext, Page } from 'playwright-core';
+import type { PreviewServer } from 'vite';
+import { ROOT, SCREENSHOTS, launch, serveApp } from './harness';
+import { corruptPng, wallsPng, type Fixture } from './fixtures';
+
+let server: PreviewServer;
+let url = '';
+let context: BrowserContext;
+let closeBrowser: () => Promise<void>;
+let page: Page;
+let work: string;
+let fixture: Fixture;
+let cliOut: string;
+const requests: string[] = [];
+const pageErrors: string[] = [];
+
+type Win = { __tessellab: { entries: { name: string; status: string; count: number | null; error: string | null; result: unknown }[] } };
+
+async function shot(name: string): Promise<void> {
+  await page.screenshot({ path: join(SCREENSHOTS, `${name}.png`) });
+}
+
+/** Waits until the entry with this name is done (or failed) and returns its state. */
+async function settled(name: string, timeout = 90_000): Promise<{ status: string; count: number | null; error: string | null }> {
+  await page.waitForFunction(
+    (n) => {
+      const e = (globalThis as unknown as Win).__tessellab.entries.find((x) => x.name === n);
+      return !!e && (e.status === 'done' || e.status === 'error');
+    },
+    name,
+    { timeout },
+  );
+  return page.evaluate((n) => {
+    const e = (globalThis as unknown as Win).__tessellab.entries.find((x) => x.name === n)!;
+    return { status: e.status, count: e.count, error: e.error };
+  }, name);
+}
+
+async function selectEntry(name: string): Promise<void> {
+  await page.getByTestId('entry').filter({ hasText: name }).locator('button.pick').click();
+}
+
+async function download(testId: string): Promise<{ name: string; bytes: Buffer }> {
+  const [d] = await Promise.all([page.waitForEvent('download'), page.getByTestId(testId).click()]);
+  const p = await d.path();
+  return { name: d.suggestedFilename(), bytes: readFileSync(p) };
+}
+
+beforeAll(async () => {
+  mkdirSync(SCREENSHOTS, { recursive: true });
+  work = mkdtempSync(join(tmpdir(), 'tessellab-e2e-work-'));
+  fixture = wallsPng(250, 640, 480, 21, work);
+  cliOut = join(work, 'cli');
+  // The reference: the command line on the same file with default settings.
+  execFileSync(process.execPath, [join(ROOT, 'bin/tessellab.mjs'), 'analyze', fixture.path, '--out', cliOut], { cwd: ROOT, stdio: 'pipe' });
+  ({ url, server } = await serveApp());
+  const b = await launch();
+  context = b.context;
+  closeBrowser = b.close;
+  context.on('request', (r) => requests.push(r.url()));
+  page = context.pages()[0] ?? (await context.newPage());
+  page.on('pageerror', (e) => pageErrors.push(e.message));
+  await page.goto(url);
+});
+
+afterAll(async () => {
+  await closeBrowser?.();
+  await server?.close();
+  if (work) rmSync(work, { recursive: true, force: true });
+});
+
+describe('Tessellab web app', () => {
+  it('opens with the demo analysed: cells, tessellation and a cell count', async () => {
+    const demo = await page.waitForFunction(() => (globalThis as unknown as Win).__tessellab.entries[0]?.name ?? null, null, { timeout: 30_000 });
+    const name = (await demo.jsonValue()) as string;
+    const s = await settled(name);
+    expect(s.status).toBe('done');
+    const shown = Number(await page.getByTestId('cell-count').textContent());
+    expect(shown).toBe(s.count);
+    // sample-images/manifest.json: foam-random.png is a 600-seed walls pattern; the count must be near it.
+    expect(shown).toBeGreaterThan(500);
+    expect(shown).toBeLessThan(700);
+    await expect.poll(() => page.getByText('Use your own').count()).toBeGreaterThan(0);
+    await shot('01-demo');
+  });
+
+  it('an added image gives a table whose cell count equals the command line\'s, and the same files', async () => {
+    await page.getByTestId('file-input').setInputFiles(fixture.path);
+    const s = await settled(fixture.name);
+    expect(s.status).toBe('done');
+    const cli = JSON.parse(readFileSync(join(cliOut, fixture.name.replace('.png', '.summary.json')), 'utf8')) as { cells: { count: number } };
+    expect(s.count).toBe(cli.cells.count);
+    await selectEntry(fixture.name);
+    await page.getByRole('tab', { name: 'Cells' }).click();
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent())).toBe(cli.cells.count);
+    await shot('02-cells-table');
+
+    await page.getByRole('tab', { name: 'Export' }).click();
+    for (const [id, file] of [
+      ['export-cells.csv', fixture.name.replace('.png', '.cells.csv')],
+      ['export-summary.json', fixture.name.replace('.png', '.summary.json')],
+      ['export-cells.geojson', fixture.name.replace('.png', '.cells.geojson')],
+      ['export-overlay.svg', fixture.name.replace('.png', '.overlay.svg')],
+      ['export-labels.png', fixture.name.replace('.png', '.labels.png')],
+      ['export-settings.json', 'settings.json'],
+    ] as const) {
+      const d = await download(id);
+      expect(d.name).toBe(file);
+      const ref = readFileSync(join(cliOut, file));
+      expect(d.bytes.equals(ref), `${file} equals the command line's`).toBe(true);
+    }
+    const csv = (await download('export-cells.csv')).bytes.toString('utf8').trim().split('\n');
+    expect(csv.length - 1).toBe(cli.cells.count);
+    expect(csv[0].split(',')[0]).toBe('cell');
+
+    const zip = unzipSync(new Uint8Array((await download('export-zip')).bytes));
+    const names = Object.keys(zip);
+    expect(names).toContain('summary.csv');
+    const stem = fixture.name.replace('.png', '');
+    expect(strFromU8(zip[`${stem}/${stem}.cells.csv`])).toBe(readFileSync(join(cliOut, `${stem}.cells.csv`), 'utf8'));
+    const summaryRows = strFromU8(zip['summary.csv']).trim().split('\n');
+    expect(summaryRows.length).toBe(3); // header + demo + fixture
+    await shot('03-export');
+  });
+
+  it('merging two neighbours lowers the count by one; Ctrl+Z restores it; Ctrl+Shift+Z redoes it', async () => {
+    await selectEntry(fixture.name);
+    await page.getByRole('tab', { name: 'Cells' }).click();
+    const before = (await settled(fixture.name)).count as number;
+    // Pick an interior cell and one of its Voronoi neighbours, then use the real buttons and keys.
+    await page.evaluate(() => {
+      const app = (globalThis as unknown as { __tessellab: { selected: { result: { analysis: { tessellation: { edge: Uint8Array; neighbourOffsets: Int32Array; neighbourIndex: Int32Array } } } }; selectCell: (c: number, add?: boolean) => void } }).__tessellab;
+      const t = app.selected.result.analysis.tessellation;
+      let i = 0;
+      while (t.edge[i]) i++;
+      const j = t.neighbourIndex[t.neighbourOffsets[i]];
+      app.selectCell(i + 1);
+      app.selectCell(j + 1, true);
+    });
+    await page.getByRole('button', { name: 'Merge' }).click();
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before - 1);
+    await shot('04-merged');
+    await page.getByTestId('bench').focus();
+    await page.keyboard.press('Control+z');
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before);
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before - 1);
+    await page.keyboard.press('Control+z');
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before);
+  });
+
+  it('clicking a cell on the Bench selects it and highlights its row', async () => {
+    const box = (await page.getByTestId('bench').boundingBox())!;
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await expect.poll(() => page.locator('[role=row][aria-selected=true]').count()).toBe(1);
+    await shot('05-selected');
+  });
+
+  it('a corrupt file shows its message beside it and leaves the rest working', async () => {
+    const bad = corruptPng(work);
+    await page.getByTestId('file-input').setInputFiles(bad.path);
+    const s = await settled(bad.name);
+    expect(s.status).toBe('error');
+    expect(s.error).toMatch(/broken\.png: .*truncated/);
+    await expect.poll(() => page.getByTestId('entry-error').first().textContent()).toMatch(/truncated/);
+    const others = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.filter((e) => e.name !== 'broken.png').map((e) => e.status));
+    expect(others.every((x) => x === 'done')).toBe(true);
+    await shot('06-corrupt');
+  });
+
+  it('a pixel size of zero, a negative one or text is refused next to the field', async () => {
+    await selectEntry(fixture.name);
+    await page.getByRole('tab', { name: 'Scale' }).click();
+    for (const [typed, msg] of [['0', /above 0/], ['-2', /above 0/], ['abc', /not a number/]] as const) {
+      await page.getByTestId('um-per-px').fill(typed);
+      await page.getByRole('button', { name: 'Apply', exact: true }).click();
+      await expect.poll(() => page.getByTestId('um-per-px-error').textContent()).toMatch(msg);
+    }
+    await page.getByTestId('um-per-px').fill('0.5');
+    await page.getByRole('button', { name: 'Apply', exact: true }).click();
+    await expect.poll(() => page.getByTestId('calibration').textContent()).toMatch(/0\.5 µm per pixel/);
+    await shot('07-scale');
+  });
+
+  it('a crashed worker is restarted, the user is told, and the results stay', async () => {
+    const before = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.map((e) => e.count));
+    await page.evaluate(() => (globalThis as unknown as { __tessellab: { bridge: { crashForTest(): void } } }).__tessellab.bridge.crashForTest());
+    await expect.poll(() => page.getByRole('alert').filter({ hasText: 'restarted' }).count()).toBeGreaterThan(0);
+    const after = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.map((e) => e.count));
+    expect(after).toEqual(before);
+    // The restarted worker works: re-detect the selected image.
+    await page.getByRole('tab', { name: 'Detect' }).click();
+    await page.getByLabel('Edge cells in statistics').selectOption('weight');
+    const s = await settled(fixture.name);
+    expect(s.status).toBe('done');
+    await shot('08-crash-recovered');
+  });
+
+  it('a reload restores the session: images, settings and results', async () => {
+    const names = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.map((e) => e.name));
+    for (const n of names) await settled(n);
+    const before = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.map((e) => [e.name, e.status, e.count]));
+    await page.reload();
+    await page.waitForFunction((n) => (globalThis as unknown as Win).__tessellab.entries.length === n, before.length, { timeout: 30_000 });
+    for (const [name] of before) await settled(name as string);
+    const after = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.map((e) => [e.name, e.status, e.count]));
+    expect(after).toEqual(before);
+    await selectEntry(fixture.name);
+    await page.getByRole('tab', { name: 'Scale' }).click();
+    await expect.poll(() => page.getByTestId('calibration').textContent()).toMatch(/0\.5 µm per pixel/);
+    await page.getByRole('tab', { name: 'Randomness' }).click();
+    await page.waitForSelector('[data-testid=plot-pair] .main-svg', { timeout: 30_000 });
+    await shot('09-reloaded-randomness');
+  });
+
+  it('the dark theme and the help overlay read well', async () => {
+    await page.getByRole('button', { name: /Switch to dark theme/ }).click();
+    await page.keyboard.press('?');
+    await expect.poll(() => page.getByRole('dialog').count()).toBe(1);
+    await shot('10-dark-help');
+    await page.keyboard.press('Escape');
+    await page.getByRole('button', { name: /Switch to light theme/ }).click();
+  });
+
+  it('makes no request beyond its own origin, and no page error occurred', () => {
+    const origin = new URL(url).origin;
+    const outside = requests.filter((r) => !r.startsWith(origin) && !r.startsWith('data:') && !r.startsWith('blob:'));
+    expect(requests.length).toBeGreaterThan(5);
+    expect(outside).toEqual([]);
+    expect(pageErrors).toEqual([]);
+  });
+});
