@@ -23,7 +23,7 @@ export function sortedRows(cols: Columns, n: number, key: string | null, descend
 
 /** The rows to render for a scroll position: [first, last) with `overscan` extra rows each side. */
 export function visibleWindow(scrollTop: number, viewport: number, rowHeight: number, total: number, overscan = 8): [number, number] {
-  const first = Math.max(0, Math.floor(scrollTop / rowHeight) - overscan);
+  const first = Math.min(total, Math.max(0, Math.floor(scrollTop / rowHeight) - overscan));
   const last = Math.min(total, Math.ceil((scrollTop + viewport) / rowHeight) + overscan);
   return [first, Math.max(first, last)];
 }

@@ -1,0 +1,89 @@
+import { describe, it, expect } from 'vitest';
+import { displayRgba, outlineRgba, cellBoxes, downscaleGrey, scaleSettings, collectTransfers, baseName } from '../../../workers/helpers';
+import { sortedRows, visibleWindow } from '../../../src/ui/table';
+import { parsePixelSize } from '../../../src/ui/state/app.svelte';
+import { formatValue, formatP } from '../../../src/ui/format';
+import type { LabelImage } from '../../../src/core/types';
+
+const lab: LabelImage = {
+  width: 4, height: 3, count: 2,
+  labels: new Int32Array([
+    1, 1, 0, 2,
+    1, 1, 0, 2,
+    1, 1, 0, 2,
+  ]),
+};
+
+describe('worker helpers', () => {
+  it('outlines mark cell pixels with a differing 4-neighbour or on the border', () => {
+    const o = outlineRgba(lab);
+    const on = (x: number, y: number) => o[(y * 4 + x) * 4 + 3] === 255;
+    expect(on(0, 0) && on(1, 1) && on(3, 1)).toBe(true);
+    expect(on(2, 1)).toBe(false); // a wall pixel
+  });
+  it('cell boxes are [x0, y0, x1, y1) per cell', () => {
+    expect([...cellBoxes(lab)]).toEqual([0, 0, 2, 3, 3, 0, 4, 3]);
+  });
+  it('the display stretch maps the 0.1 % and 99.9 % points to 0 and 255', () => {
+    const data = new Uint16Array(2000);
+    for (let i = 0; i < data.length; i++) data[i] = 1000 + (i % 1000);
+    const rgba = displayRgba({ width: 2000, height: 1, data, bitDepth: 16 });
+    expect(rgba[0]).toBe(0);
+    expect(rgba[4 * 999]).toBe(255);
+    expect(rgba[3]).toBe(255);
+  });
+  it('downscaling averages blocks and keeps the bit depth', () => {
+    const img = { width: 3, height: 2, data: new Uint8Array([0, 10, 20, 30, 40, 50]), bitDepth: 8 as const };
+    const s = downscaleGrey(img, 2);
+    expect([s.width, s.height]).toEqual([2, 1]);
+    expect([...s.data]).toEqual([20, 35]);
+  });
+  it('preview settings divide lengths by the factor and keep block sizes odd', () => {
+    const s = scaleSettings({ umPerPx: 0.5, minCellAreaPx: 400, walls: { smoothSigmaPx: 2, adaptiveBlockPx: 51, seedErodePx: 4, flattenRadiusPx: -1 } }, 4);
+    expect(s.umPerPx).toBe(2);
+    expect(s.minCellAreaPx).toBe(25);
+    expect(s.walls?.smoothSigmaPx).toBe(0.5);
+    expect((s.walls?.adaptiveBlockPx ?? 0) % 2).toBe(1);
+    expect(s.walls?.flattenRadiusPx).toBe(-1);
+    expect(s.walls?.seedErodePx).toBe(1);
+  });
+  it('lists each buffer to transfer once', () => {
+    const a = new Float64Array(4);
+    expect(collectTransfers({ a, b: { c: a, d: [new Int32Array(2)] } }).length).toBe(2);
+    expect(baseName('x/y/grains.tif')).toBe('grains');
+    expect(baseName('noext')).toBe('noext');
+  });
+});
+
+describe('cells table', () => {
+  const cols = { area: new Float64Array([3, 1, NaN, 2]) };
+  it('sorts by a column, NaN last, ties in cell order', () => {
+    expect([...sortedRows(cols, 4, 'area', false)]).toEqual([1, 3, 0, 2]);
+    expect([...sortedRows(cols, 4, 'area', true)]).toEqual([0, 3, 1, 2]);
+    expect([...sortedRows(cols, 4, null, false)]).toEqual([0, 1, 2, 3]);
+  });
+  it('renders only the rows in view: 20 000 rows, a 400 px view of 24 px rows', () => {
+    const [a, b] = visibleWindow(240_000, 400, 24, 20_000);
+    expect(a).toBe(10_000 - 8);
+    expect(b - a).toBeLessThan(40);
+    expect(visibleWindow(1e9, 400, 24, 20_000)[1]).toBe(20_000);
+  });
+});
+
+describe('typed pixel size', () => {
+  it('accepts positive numbers (a decimal comma too) and names what is wrong otherwise', () => {
+    expect(parsePixelSize('0.5')).toEqual({ value: 0.5 });
+    expect(parsePixelSize(' 1,25 ')).toEqual({ value: 1.25 });
+    expect(parsePixelSize('0')).toEqual({ error: expect.stringMatching(/above 0/) });
+    expect(parsePixelSize('-1')).toEqual({ error: expect.stringMatching(/above 0/) });
+    expect(parsePixelSize('abc')).toEqual({ error: expect.stringMatching(/not a number/) });
+    expect(parsePixelSize('')).toEqual({ error: expect.stringMatching(/Type a pixel size/) });
+    expect(parsePixelSize('Infinity')).toEqual({ error: expect.stringMatching(/not a number/) });
+  });
+  it('formats values for the table', () => {
+    expect(formatValue(12.3456, 'area_px2')).toBe('12.35');
+    expect(formatValue(7, 'neighbours')).toBe('7');
+    expect(formatValue(NaN, 'x')).toBe('–');
+    expect(formatP(0.0004)).toBe('< 0.001');
+  });
+});
