@@ -37,7 +37,10 @@ export interface BodiesSettings {
   fillHoles: boolean;
   /** Split touching bodies by distance-transform markers and watershed. */
   splitTouching: boolean;
-  /** Two markers closer than this fraction of the local radius are merged (0..1). */
+  /**
+   * How readily touching bodies are split (0..1): a distance-transform peak becomes a body when it stands
+   * (1 − splitSensitivity)·R/2 above the saddle to a higher one, R the median body radius.
+   */
   splitSensitivity: number;
 }
 
@@ -127,7 +130,7 @@ export function defaultSettings(): Settings {
       adaptiveBlockPx: 51,
       fillHoles: true,
       splitTouching: true,
-      splitSensitivity: 0.5,
+      splitSensitivity: 0.85,
     },
     points: { units: 'px' },
     reference: { replicates: 199, seed: 1, alpha: 0.05 },

@@ -171,12 +171,12 @@ export function connectedComponents(
   });
 }
 
-/** Euclidean distance (px) of each mask pixel to the nearest 0 pixel (opencv's exact-ish 5x5 mask). */
+/** Exact Euclidean distance (px) of each mask pixel to the nearest 0 pixel (Felzenszwalb & Huttenlocher 2012, via opencv's precise mode). */
 export function distanceTransform(cv: CV, mask: Uint8Array, width: number, height: number): Float32Array {
   return withMats((track) => {
     const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
     const dst = track(new cv.Mat());
-    cv.distanceTransform(src, dst, cv.DIST_L2, 5);
+    cv.distanceTransform(src, dst, cv.DIST_L2, cv.DIST_MASK_PRECISE);
     return new Float32Array(dst.data32F as Float32Array);
   });
 }

@@ -98,7 +98,7 @@ th,td{border:1px solid #bbb;padding:1mm 1.5mm;text-align:left;vertical-align:top
 th{background:#eee}
 .row{display:flex;gap:5mm;align-items:flex-start}
 .headline{font-size:13pt;font-weight:600;margin:1mm 0 2mm}
-.img{border:1px solid #999;background:#fff}
+.img{border:1px solid #999;background:#fff;flex:none}
 .fig{fill:none;stroke:#d00;stroke-width:1.2}
 .field{fill:none;stroke:#555;stroke-dasharray:4 3;stroke-width:0.8}
 .line{fill:none;stroke:#06c;stroke-width:0.6;opacity:0.8}

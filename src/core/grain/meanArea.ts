@@ -87,9 +87,9 @@ export function milesLantuejoulWeight(W1: number, W2: number, b1: number, b2: nu
  * of ASTM E1382 applied to each grain), in bins of `binG` G units aligned to multiples of binG.
  *
  * @param areasMm2 grain areas (mm²)
- * @param binG bin width (G units), default 0.5
+ * @param binG bin width (G units), default 0.25
  */
-export function gHistogram(areasMm2: readonly number[], binG = 0.5): GBin[] {
+export function gHistogram(areasMm2: readonly number[], binG = 0.25): GBin[] {
   if (areasMm2.length === 0) return [];
   const g = areasMm2.map(gFromMeanArea);
   const lo = Math.floor(Math.min(...g) / binG);

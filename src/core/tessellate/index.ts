@@ -15,6 +15,15 @@ export type { Tessellation } from './types';
  */
 const VERTEX_EPS = 1e-9;
 
+/** From this many points on, cells are processed in Hilbert order. */
+const HILBERT_MIN_POINTS = 50000;
+
+function identity(n: number): Int32Array {
+  const p = new Int32Array(n);
+  for (let i = 0; i < n; i++) p[i] = i;
+  return p;
+}
+
 /** Growable Float64Array for the polygon coordinates. */
 class Buffer64 {
   data: Float64Array;
@@ -80,6 +89,21 @@ export function validatePoints(points: Float64Array, field: Rect): void {
  *   outside points; SettingsError an empty field
  */
 export function tessellate(points: Float64Array, field: Rect): Tessellation {
+  return build(points, field, true) as Tessellation;
+}
+
+/** The per-cell part of a {@link Tessellation}, without polygons and triangles. */
+export type CellTessellation = Omit<Tessellation, 'polygonOffsets' | 'polygonCoords' | 'triangles'>;
+
+/**
+ * As {@link tessellate}, but keeps no polygons and no triangles: the lean form the Monte Carlo reference
+ * draws hundreds of times. Same validation, same errors, same per-cell values.
+ */
+export function tessellateCells(points: Float64Array, field: Rect): CellTessellation {
+  return build(points, field, false);
+}
+
+function build(points: Float64Array, field: Rect, keepPolygons: boolean): Tessellation | CellTessellation {
   validatePoints(points, field);
   const n = points.length / 2;
   const W = field.x1 - field.x0;
@@ -94,14 +118,19 @@ export function tessellate(points: Float64Array, field: Rect): Tessellation {
     coords[2 * i + 1] = (points[2 * i + 1]! - field.y0) * s;
   }
 
-  // Cells are processed in Hilbert order: neighbouring cells then sit close in memory, which more than
-  // halves the time for a million random points (the walk around a cell reads scattered triangles otherwise).
-  const perm = hilbertOrder(coords, n, Math.max(Wn, Hn));
-  const sorted = new Float64Array(2 * n);
-  for (let k = 0; k < n; k++) {
-    const i = perm[k]!;
-    sorted[2 * k] = coords[2 * i]!;
-    sorted[2 * k + 1] = coords[2 * i + 1]!;
+  // Large sets are processed in Hilbert order: neighbouring cells then sit close in memory, which saves
+  // about half the time for a million random points (the walk around a cell reads scattered triangles
+  // otherwise). Small sets fit in the cache as they are.
+  const reorder = n >= HILBERT_MIN_POINTS;
+  const perm = reorder ? hilbertOrder(coords, n, Math.max(Wn, Hn)) : identity(n);
+  let sorted = coords;
+  if (reorder) {
+    sorted = new Float64Array(2 * n);
+    for (let k = 0; k < n; k++) {
+      const i = perm[k]!;
+      sorted[2 * k] = coords[2 * i]!;
+      sorted[2 * k + 1] = coords[2 * i + 1]!;
+    }
   }
 
   const delaunay = new Delaunay(sorted);
@@ -133,7 +162,7 @@ export function tessellate(points: Float64Array, field: Rect): Tessellation {
   const bbox = new Float64Array(4 * n);
   const centroid = new Float64Array(2 * n);
   const startSorted = new Int32Array(n);
-  const buf = new Buffer64(2 * (triangles.length + 8 * delaunay.hull.length));
+  const buf = new Buffer64(keepPolygons ? 2 * (triangles.length + 8 * delaunay.hull.length) : 256);
 
   // Border cells are drawn by d3 into this context; reused for every cell.
   const scratch: number[] = [];
@@ -145,6 +174,7 @@ export function tessellate(points: Float64Array, field: Rect): Tessellation {
 
   for (let k = 0; k < n; k++) {
     const i = perm[k]!;
+    if (!keepPolygons) buf.length = 0;
     const start = buf.length;
     let interior = hullIndex[k] === -1;
     if (interior) {
@@ -189,6 +219,34 @@ export function tessellate(points: Float64Array, field: Rect): Tessellation {
     polygonMeasures(buf.data, start, buf.length, i, area, perimeter, centroid, bbox);
   }
 
+  const inv2 = inv * inv;
+  for (let i = 0; i < n; i++) {
+    area[i] = area[i]! * inv2;
+    perimeter[i] = perimeter[i]! * inv;
+    centroid[2 * i] = centroid[2 * i]! * inv + field.x0;
+    centroid[2 * i + 1] = centroid[2 * i + 1]! * inv + field.y0;
+    bbox[4 * i] = bbox[4 * i]! * inv + field.x0;
+    bbox[4 * i + 1] = bbox[4 * i + 1]! * inv + field.y0;
+    bbox[4 * i + 2] = bbox[4 * i + 2]! * inv + field.x0;
+    bbox[4 * i + 3] = bbox[4 * i + 3]! * inv + field.y0;
+  }
+
+  const { neighbourOffsets, neighbourIndex } = neighbourGraph(sorted, perm, triangles, halfedges, cc, Wn, Hn, n);
+
+  const cells: CellTessellation = {
+    points: points.slice(),
+    field: { ...field },
+    area,
+    perimeter,
+    sides,
+    centroid,
+    edge,
+    bbox,
+    neighbourOffsets,
+    neighbourIndex,
+  };
+  if (!keepPolygons) return cells;
+
   // Polygons in the caller's order and coordinates.
   const polygonOffsets = new Int32Array(n + 1);
   for (let i = 0; i < n; i++) polygonOffsets[i + 1] = polygonOffsets[i]! + sides[i]!;
@@ -204,37 +262,9 @@ export function tessellate(points: Float64Array, field: Rect): Tessellation {
       polygonCoords[dst + 1] = data[src + 1]! * inv + field.y0;
     }
   }
-  const inv2 = inv * inv;
-  for (let i = 0; i < n; i++) {
-    area[i] = area[i]! * inv2;
-    perimeter[i] = perimeter[i]! * inv;
-    centroid[2 * i] = centroid[2 * i]! * inv + field.x0;
-    centroid[2 * i + 1] = centroid[2 * i + 1]! * inv + field.y0;
-    bbox[4 * i] = bbox[4 * i]! * inv + field.x0;
-    bbox[4 * i + 1] = bbox[4 * i + 1]! * inv + field.y0;
-    bbox[4 * i + 2] = bbox[4 * i + 2]! * inv + field.x0;
-    bbox[4 * i + 3] = bbox[4 * i + 3]! * inv + field.y0;
-  }
-
-  const { neighbourOffsets, neighbourIndex } = neighbourGraph(sorted, perm, triangles, halfedges, cc, Wn, Hn, n);
   const tri = new Uint32Array(triangles.length);
   for (let j = 0; j < tri.length; j++) tri[j] = perm[triangles[j]!]!;
-
-  return {
-    points: points.slice(),
-    field: { ...field },
-    area,
-    perimeter,
-    sides,
-    centroid,
-    edge,
-    bbox,
-    neighbourOffsets,
-    neighbourIndex,
-    triangles: tri,
-    polygonOffsets,
-    polygonCoords,
-  };
+  return { ...cells, triangles: tri, polygonOffsets, polygonCoords };
 }
 
 /**

@@ -1,0 +1,412 @@
+/**
+ * The Monte Carlo random-seeding reference: Poisson seeds at the observed density in a field of the same
+ * size, their Voronoi tessellation, the same edge rule and minimum cell area as the observation, and the
+ * same statistics, R times from one seed. It replaces the infinite-plane constants (constants.ts), which a
+ * finite field with excluded edge cells biases.
+ */
+import { SettingsError, TooFewCellsError } from '../errors';
+import { mulberry32, subSeed } from '../random';
+import type { EdgeRule } from '../settings';
+import { tessellateCells } from '../tessellate';
+import type { Rect } from '../types';
+import { uniformPoints } from '../synth/seeds';
+import { gammaCdf } from '../stats/dist';
+import {
+  AreaCdfTable, MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats,
+  type AreaStats,
+} from '../stats/pattern';
+import { PV_AREA_GAMMA_SHAPE } from './constants';
+
+/** Which points the spatial statistics (Clark–Evans, L-function) of the reference are computed on. */
+export type SpatialPoints = 'seeds' | 'centroids';
+
+export interface ReferenceOptions {
+  /** Number of cells observed in the field (all cells, edge cells included). */
+  cells: number;
+  field: Rect;
+  replicates: number;
+  seed: number;
+  edgeRule: EdgeRule;
+  /** Cells smaller than this (px²) are not counted (a segmentation cannot see them). Default 0. */
+  minCellAreaPx?: number;
+  /**
+   * 'seeds' (default) compares observed points with Poisson points (points and bodies patterns: the
+   * observed centroids play the seeds); 'centroids' with the centroids of Poisson–Voronoi cells (walls
+   * patterns, whose centroids are those of the cells, not of any seeds).
+   */
+  spatialPoints?: SpatialPoints;
+  /** Called after each replicate with the fraction done. */
+  onProgress?: (fraction: number) => void;
+}
+
+/** Names of the scalar statistics every replicate records. */
+export const REFERENCE_STATISTICS = [
+  'meanSides', 'mu2', 'p6', 'sidesChiSquare', 'areaVariance', 'areaCv', 'gammaShape', 'ksDistance',
+  'clarkEvansR', 'lMaxDeviation', 'lewisSlope', 'lewisIntercept', 'aboavA', 'lemaitre', 'meanPerimeterScaled', 'interiorCells',
+] as const;
+export type ReferenceStatistic = (typeof REFERENCE_STATISTICS)[number];
+
+/** Grid of normalised areas at which ECDF and histogram envelopes are tabulated. */
+export const AREA_GRID_STEP = 0.05;
+export const AREA_GRID_MAX = 4;
+
+/** Pointwise summary of a curve over the replicates. */
+export interface Envelope {
+  mean: Float64Array;
+  /** 2.5 % and 97.5 % pointwise quantiles. */
+  lo: Float64Array;
+  hi: Float64Array;
+  /** Pointwise extremes over all replicates. */
+  min: Float64Array;
+  max: Float64Array;
+}
+
+/** The reference: per-replicate statistics, their summaries and the envelopes of the distributions. */
+export interface Reference {
+  options: { cells: number; field: Rect; replicates: number; seed: number; edgeRule: EdgeRule; minCellAreaPx: number; spatialPoints: SpatialPoints };
+  /** Seeds drawn per replicate (the observed count, raised for the cells the minimum area hides). */
+  seedsPerReplicate: number;
+  /** Replicate values of each statistic, length R (NaN where a replicate could not give it). */
+  values: Record<ReferenceStatistic, Float64Array>;
+  mean: Record<ReferenceStatistic, number>;
+  sd: Record<ReferenceStatistic, number>;
+  /** Side distribution p(n), n = 0..MAX_SIDES: mean and envelope over replicates. */
+  sides: Envelope;
+  /** Normalised-area ECDF at areaGrid. */
+  areaEcdf: Envelope;
+  /** Normalised-area histogram density on bins [areaGrid[k], areaGrid[k + 1]). */
+  areaHistogram: Envelope;
+  areaGrid: Float64Array;
+  /** Pooled normalised-area CDF over all replicates (Kolmogorov–Smirnov distances are measured to it). */
+  areaCdf: AreaCdfTable;
+  /** Radii (px) and envelope of L(r) − r. */
+  lRadii: Float64Array;
+  lFunction: Envelope;
+  /** Pooled Lewis and Aboav–Weaire class means (over all replicates' cells). */
+  lewis: { n: number[]; value: number[] };
+  aboav: { n: number[]; value: number[] };
+  /** Interior cells used, summed over replicates. */
+  interiorCellsTotal: number;
+  warnings: string[];
+}
+
+/**
+ * Draws the random-seeding reference.
+ *
+ * Each replicate r draws `seedsPerReplicate` uniform seeds in the field (a Poisson process conditioned on
+ * its count, which makes the Monte Carlo test exact given the observed number of cells) from the generator
+ * seeded with subSeed(seed, r), tessellates them, keeps the cells the observation's edge rule and minimum
+ * area keep, and records the statistics of stats/pattern.ts. The minimum area hides a fraction F of Poisson–
+ * Voronoi cells, F = P(Y < minArea·λ) with Y gamma(7/2, 7/2) (Ferenc & Néda 2007; pub, read in text), so
+ * seeds = round(cells / (1 − F)) puts the visible cells at the observed density (approximately: hidden cells
+ * also change their neighbours).
+ *
+ * Distances of distributions: the side distribution by X² = Σ_bins (O − E)²/E with E from the replicates'
+ * mean p(n) over the bins ≤4, 5, 6, 7, ≥8; the areas by the Kolmogorov–Smirnov distance to the pooled
+ * area distribution; the L-function by max_r |L(r) − L̄(r)| (a maximum-deviation test; Diggle 2003,
+ * Statistical Analysis of Spatial Point Patterns; pub, memory).
+ *
+ * @throws SettingsError on a bad count, field or replicate number; TooFewCellsError when the field holds
+ *   so few cells that no replicate has an interior cell
+ */
+export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
+  const { cells, field, replicates: R, seed, edgeRule } = opts;
+  const minArea = opts.minCellAreaPx && opts.minCellAreaPx > 0 ? opts.minCellAreaPx : 0;
+  const spatial: SpatialPoints = opts.spatialPoints ?? 'seeds';
+  if (!Number.isInteger(cells) || cells < 3) throw new TooFewCellsError(`The reference needs at least 3 cells in the field; got ${cells}.`);
+  if (!Number.isInteger(R) || R < 1) throw new SettingsError(`The number of replicates must be a positive whole number; got ${R}.`);
+  if (!(field.x1 > field.x0 && field.y1 > field.y0)) throw new SettingsError(`The reference field must have a positive width and height; got ${JSON.stringify(field)}.`);
+  if (edgeRule !== 'exclude' && edgeRule !== 'weight') throw new SettingsError(`The edge rule must be exclude or weight; got "${String(edgeRule)}".`);
+  const W = field.x1 - field.x0;
+  const H = field.y1 - field.y0;
+  const warnings: string[] = [];
+  const hidden = minArea > 0 ? gammaCdf((minArea * cells) / (W * H), PV_AREA_GAMMA_SHAPE.value, PV_AREA_GAMMA_SHAPE.value) : 0;
+  if (hidden > 0.5) {
+    warnings.push(`The minimum cell area (${minArea} px²) hides ${(100 * hidden).toFixed(0)} % of random-seeding cells at this density; the reference is unreliable. Lower the minimum area.`);
+  }
+  const seeds = Math.max(3, Math.round(cells / Math.max(0.05, 1 - hidden)));
+  const radii = lRadii(cells, field);
+  const nr = radii.length;
+  const G = Math.round(AREA_GRID_MAX / AREA_GRID_STEP) + 1;
+  const areaGrid = new Float64Array(G);
+  for (let k = 0; k < G; k++) areaGrid[k] = k * AREA_GRID_STEP;
+
+  const values = {} as Record<ReferenceStatistic, Float64Array>;
+  for (const name of REFERENCE_STATISTICS) values[name] = new Float64Array(R).fill(Number.NaN);
+  const sidesCurves = new Float64Array(R * (MAX_SIDES + 1)).fill(Number.NaN);
+  const ecdfCurves = new Float64Array(R * G).fill(Number.NaN);
+  const histCurves = new Float64Array(R * (G - 1)).fill(Number.NaN);
+  const lCurves = new Float64Array(R * nr).fill(Number.NaN);
+  const areaSamples: (AreaStats | null)[] = new Array(R).fill(null);
+  const pooled = new AreaCdfTable();
+  const lewisW = new Float64Array(MAX_SIDES + 1);
+  const lewisV = new Float64Array(MAX_SIDES + 1);
+  const aboavW = new Float64Array(MAX_SIDES + 1);
+  const aboavV = new Float64Array(MAX_SIDES + 1);
+  let interiorTotal = 0;
+  const sqrtLambda = Math.sqrt(seeds / (W * H));
+
+  for (let r = 0; r < R; r++) {
+    const rng = mulberry32(subSeed(seed, r));
+    const pts = uniformPoints(rng, seeds, W, H);
+    for (let i = 0; i < seeds; i++) {
+      pts[2 * i] = pts[2 * i]! + field.x0;
+      pts[2 * i + 1] = pts[2 * i + 1]! + field.y0;
+    }
+    const t = tessellateCells(pts, field);
+    const sample = cellSample(t.area, t.edge, t.bbox, field, edgeRule, minArea);
+    const m = sample.index.length;
+    values.interiorCells[r] = m;
+    interiorTotal += m;
+    const sp = spatial === 'seeds' ? pts : visibleCentroids(t.centroid, t.area, minArea);
+    const ce = spatial === 'seeds' ? clarkEvans(sp, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }) : clarkEvans(sp, field);
+    values.clarkEvansR[r] = ce.Rcorrected;
+    const L = lFunction(sp, field, radii);
+    lCurves.set(L, r * nr);
+    if (m === 0) {
+      opts.onProgress?.((r + 1) / R);
+      continue;
+    }
+    const ss = sideStats(t.sides, sample);
+    values.meanSides[r] = ss.mean;
+    values.mu2[r] = ss.mu2;
+    values.p6[r] = ss.p6;
+    values.lemaitre[r] = ss.lemaitre;
+    sidesCurves.set(ss.p, r * (MAX_SIDES + 1));
+    const as = areaStats(t.area, sample);
+    values.areaVariance[r] = as.variance;
+    values.areaCv[r] = as.cv;
+    values.gammaShape[r] = as.gammaShape;
+    areaSamples[r] = as;
+    pooled.add(as, sample.weightSum);
+    ecdfOnGrid(as, areaGrid, ecdfCurves, r * G);
+    for (let k = 0; k + 1 < G; k++) {
+      histCurves[r * (G - 1) + k] = (ecdfCurves[r * G + k + 1]! - ecdfCurves[r * G + k]!) / AREA_GRID_STEP;
+    }
+    let per = 0;
+    for (let k = 0; k < m; k++) per += sample.weight[k]! * t.perimeter[sample.index[k]!]!;
+    values.meanPerimeterScaled[r] = (per / sample.weightSum) * sqrtLambda;
+    const lewis = lewisLaw(t.sides, t.area, sample, as.mean);
+    values.lewisSlope[r] = lewis.fit.slope;
+    values.lewisIntercept[r] = lewis.fit.intercept;
+    accumulateClasses(lewis, lewisW, lewisV);
+    const aw = aboavWeaireLaw(t.sides, t.edge, t.neighbourOffsets, t.neighbourIndex, sample);
+    values.aboavA[r] = aw.a;
+    accumulateClasses(aw, aboavW, aboavV);
+    opts.onProgress?.((r + 1) / R);
+  }
+  if (interiorTotal === 0) {
+    throw new TooFewCellsError(
+      `None of the ${R} reference replicates has an interior cell: ${cells} cells in a ${W} x ${H} px field all touch the border. Use a larger field or more cells.`,
+    );
+  }
+
+  const sides = envelope(sidesCurves, R, MAX_SIDES + 1);
+  const lEnv = envelope(lCurves, R, nr);
+  // Second pass: distances of each replicate to the reference's own mean curves.
+  for (let r = 0; r < R; r++) {
+    const as = areaSamples[r];
+    if (!as) continue;
+    values.ksDistance[r] = ksDistance(as, (y) => pooled.at(y));
+    values.sidesChiSquare[r] = sidesChiSquare(sidesCurves.subarray(r * (MAX_SIDES + 1), (r + 1) * (MAX_SIDES + 1)), values.interiorCells[r]!, sides.mean);
+  }
+  for (let r = 0; r < R; r++) values.lMaxDeviation[r] = maxDeviation(lCurves.subarray(r * nr, (r + 1) * nr), lEnv.mean);
+
+  const mean = {} as Record<ReferenceStatistic, number>;
+  const sd = {} as Record<ReferenceStatistic, number>;
+  for (const name of REFERENCE_STATISTICS) {
+    const [mu, s] = meanSd(values[name]);
+    mean[name] = mu;
+    sd[name] = s;
+  }
+  const validSides = countFinite(values.mu2);
+  if (validSides < R) warnings.push(`${R - validSides} of ${R} replicates had no interior cell; their side and area statistics are missing. Use a larger field.`);
+  if (mean.interiorCells < 10) {
+    warnings.push(`Only ${mean.interiorCells.toFixed(1)} interior cells per replicate on average: the field is too small for a stable reference; use a larger field or more cells.`);
+  }
+  return {
+    options: { cells, field: { ...field }, replicates: R, seed, edgeRule, minCellAreaPx: minArea, spatialPoints: spatial },
+    seedsPerReplicate: seeds,
+    values,
+    mean,
+    sd,
+    sides,
+    areaEcdf: envelope(ecdfCurves, R, G),
+    areaHistogram: envelope(histCurves, R, G - 1),
+    areaGrid,
+    areaCdf: pooled,
+    lRadii: radii,
+    lFunction: lEnv,
+    lewis: pooledClasses(lewisW, lewisV),
+    aboav: pooledClasses(aboavW, aboavV),
+    interiorCellsTotal: interiorTotal,
+    warnings,
+  };
+}
+
+/** Centroids of the cells at least minArea large (the ones a segmentation would see). */
+function visibleCentroids(centroid: Float64Array, area: Float64Array, minArea: number): Float64Array {
+  if (!(minArea > 0)) return centroid;
+  let m = 0;
+  for (let i = 0; i < area.length; i++) if (area[i]! >= minArea) m++;
+  const out = new Float64Array(2 * m);
+  let k = 0;
+  for (let i = 0; i < area.length; i++) {
+    if (area[i]! < minArea) continue;
+    out[k++] = centroid[2 * i]!;
+    out[k++] = centroid[2 * i + 1]!;
+  }
+  return out;
+}
+
+function accumulateClasses(law: { n: number[]; value: number[]; count: number[] }, w: Float64Array, v: Float64Array): void {
+  for (let k = 0; k < law.n.length; k++) {
+    w[law.n[k]!]! += law.count[k]!;
+    v[law.n[k]!]! += law.count[k]! * law.value[k]!;
+  }
+}
+
+function pooledClasses(w: Float64Array, v: Float64Array): { n: number[]; value: number[] } {
+  const n: number[] = [];
+  const value: number[] = [];
+  for (let k = 0; k <= MAX_SIDES; k++) {
+    if (w[k]! > 0) {
+      n.push(k);
+      value.push(v[k]! / w[k]!);
+    }
+  }
+  return { n, value };
+}
+
+/** ECDF of a sample at the grid points into out[offset ..]. */
+export function ecdfOnGrid(a: AreaStats, grid: Float64Array, out: Float64Array, offset: number): void {
+  let k = 0;
+  let c = 0;
+  for (let g = 0; g < grid.length; g++) {
+    while (k < a.sorted.length && a.sorted[k]! <= grid[g]!) c = a.cumulative[k++]!;
+    out[offset + g] = c;
+  }
+}
+
+/** Side-number bins of the chi-square statistic: ≤4, 5, 6, 7, ≥8. */
+function sideBins(p: ArrayLike<number>): number[] {
+  let low = 0;
+  let high = 0;
+  for (let n = 0; n <= 4; n++) low += p[n]!;
+  for (let n = 8; n <= MAX_SIDES; n++) high += p[n]!;
+  return [low, p[5]!, p[6]!, p[7]!, high];
+}
+
+/**
+ * Pearson's X² of an observed side distribution p (fractions of `count` cells) against expected fractions
+ * q, over the bins ≤4, 5, 6, 7, ≥8 (4 degrees of freedom when q is known). (Pearson 1900; pub, memory.)
+ */
+export function sidesChiSquare(p: ArrayLike<number>, count: number, q: ArrayLike<number>): number {
+  const o = sideBins(p);
+  const e = sideBins(q);
+  let x2 = 0;
+  for (let b = 0; b < 5; b++) {
+    if (e[b]! > 0) x2 += (count * (o[b]! - e[b]!) ** 2) / e[b]!;
+  }
+  return x2;
+}
+
+/** max_k |a[k] − b[k]| over finite entries. */
+export function maxDeviation(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  let d = Number.NaN;
+  for (let k = 0; k < a.length; k++) {
+    const e = Math.abs(a[k]! - b[k]!);
+    if (Number.isFinite(e) && !(e <= d)) d = e;
+  }
+  return d;
+}
+
+function countFinite(a: Float64Array): number {
+  let c = 0;
+  for (const v of a) if (Number.isFinite(v)) c++;
+  return c;
+}
+
+/** Mean and sample standard deviation of the finite entries. */
+export function meanSd(a: ArrayLike<number>): [number, number] {
+  let n = 0;
+  let s = 0;
+  for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i]!)) { s += a[i]!; n++; }
+  if (!n) return [Number.NaN, Number.NaN];
+  const m = s / n;
+  let v = 0;
+  for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i]!)) v += (a[i]! - m) ** 2;
+  return [m, n > 1 ? Math.sqrt(v / (n - 1)) : Number.NaN];
+}
+
+/** Pointwise mean, 2.5 %/97.5 % quantiles and extremes of R curves of length L stored row by row. */
+export function envelope(curves: Float64Array, R: number, L: number): Envelope {
+  const mean = new Float64Array(L);
+  const lo = new Float64Array(L);
+  const hi = new Float64Array(L);
+  const min = new Float64Array(L);
+  const max = new Float64Array(L);
+  const col = new Float64Array(R);
+  for (let k = 0; k < L; k++) {
+    let m = 0;
+    for (let r = 0; r < R; r++) {
+      const v = curves[r * L + k]!;
+      if (Number.isFinite(v)) col[m++] = v;
+    }
+    if (!m) {
+      mean[k] = lo[k] = hi[k] = min[k] = max[k] = Number.NaN;
+      continue;
+    }
+    const c = col.subarray(0, m).sort();
+    let s = 0;
+    for (let j = 0; j < m; j++) s += c[j]!;
+    mean[k] = s / m;
+    lo[k] = quantileSorted(c, 0.025);
+    hi[k] = quantileSorted(c, 0.975);
+    min[k] = c[0]!;
+    max[k] = c[m - 1]!;
+  }
+  return { mean, lo, hi, min, max };
+}
+
+/** Linear-interpolation quantile of sorted values (the usual "type 7" definition; trade). */
+export function quantileSorted(c: ArrayLike<number>, q: number): number {
+  const h = (c.length - 1) * q;
+  const a = Math.floor(h);
+  const b = Math.min(c.length - 1, a + 1);
+  return c[a]! + (h - a) * (c[b]! - c[a]!);
+}
+
+const round = (v: number, d = 6): number | null => (Number.isFinite(v) ? Number(v.toPrecision(d)) : null);
+const arr = (a: ArrayLike<number>, d = 6): (number | null)[] => Array.from(a as ArrayLike<number>, (v) => round(v, d));
+
+/**
+ * A JSON-serialisable summary of a reference: its options, mean and sd of each statistic, the side
+ * distribution and area and L-function envelopes. Replicate values are included only if asked for.
+ */
+export function referenceSummary(ref: Reference, opts: { includeValues?: boolean } = {}): Record<string, unknown> {
+  const stats: Record<string, unknown> = {};
+  for (const name of REFERENCE_STATISTICS) {
+    stats[name] = { mean: round(ref.mean[name]), sd: round(ref.sd[name]), ...(opts.includeValues ? { values: arr(ref.values[name]) } : {}) };
+  }
+  const env = (e: Envelope) => ({ mean: arr(e.mean), lo: arr(e.lo), hi: arr(e.hi), min: arr(e.min), max: arr(e.max) });
+  return {
+    cells: ref.options.cells,
+    field: ref.options.field,
+    replicates: ref.options.replicates,
+    seed: ref.options.seed,
+    edgeRule: ref.options.edgeRule,
+    minCellAreaPx: ref.options.minCellAreaPx,
+    spatialPoints: ref.options.spatialPoints,
+    seedsPerReplicate: ref.seedsPerReplicate,
+    interiorCellsTotal: ref.interiorCellsTotal,
+    statistics: stats,
+    sides: { n: Array.from({ length: MAX_SIDES + 1 }, (_, n) => n), ...env(ref.sides) },
+    areaEcdf: { y: arr(ref.areaGrid), ...env(ref.areaEcdf) },
+    areaHistogram: { y0: arr(ref.areaGrid.subarray(0, ref.areaGrid.length - 1)), binWidth: AREA_GRID_STEP, ...env(ref.areaHistogram) },
+    lFunction: { rPx: arr(ref.lRadii), ...env(ref.lFunction) },
+    lewis: { n: ref.lewis.n, meanNormalisedArea: arr(ref.lewis.value) },
+    aboavWeaire: { n: ref.aboav.n, meanNeighbourSides: arr(ref.aboav.value) },
+    warnings: ref.warnings,
+  };
+}
