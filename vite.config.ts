@@ -1,8 +1,29 @@
 import { defineConfig } from 'vitest/config';
 import { svelte } from '@sveltejs/vite-plugin-svelte';
+import type { Plugin } from 'vite';
+
+/**
+ * The page's Content Security Policy (also in index.html's meta tag) sent as a header by `vite preview`,
+ * so that it binds the worker too: only this origin may be reached. The analysis worker's own policy adds
+ * 'unsafe-eval' because opencv.js (Emscripten's embind) builds functions from strings; the page keeps
+ * the strict one.
+ */
+const CSP = "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; worker-src 'self' blob:; style-src 'self' 'unsafe-inline'; img-src 'self' data: blob:; font-src 'self' data:; connect-src 'self'; object-src 'none'; base-uri 'self'; form-action 'none'; frame-src 'none'";
+const WORKER_CSP = CSP.replace("script-src 'self' 'wasm-unsafe-eval'", "script-src 'self' 'wasm-unsafe-eval' 'unsafe-eval'");
+function cspHeaders(): Plugin {
+  return {
+    name: 'tessellab-csp',
+    configurePreviewServer(server) {
+      server.middlewares.use((req, res, next) => {
+        res.setHeader('Content-Security-Policy', /analysis\.worker/.test(req.url ?? '') ? WORKER_CSP : CSP);
+        next();
+      });
+    },
+  };
+}
 
 export default defineConfig({
-  plugins: [svelte()],
+  plugins: [svelte(), cspHeaders()],
   base: './',
   worker: { format: 'es' },
   build: { target: 'es2022', chunkSizeWarningLimit: 12000 },
