@@ -234,9 +234,26 @@ describe('Tessellab web app', () => {
     await page.getByRole('button', { name: /Switch to light theme/ }).click();
   });
 
+  it('its Content Security Policy refuses any other origin, on the page and in the worker', async () => {
+    const blocked = await page.evaluate(async () => {
+      const seen: string[] = [];
+      document.addEventListener('securitypolicyviolation', (e) => seen.push(e.violatedDirective));
+      // A loopback address on this machine: the policy must stop it before any packet is sent.
+      const r = await fetch('http://127.0.0.2:9/x').then(() => 'sent', () => 'refused');
+      await new Promise((res) => setTimeout(res, 100));
+      return { r, seen };
+    });
+    expect(blocked.r).toBe('refused');
+    expect(blocked.seen).toContain('connect-src');
+    const res = await fetch(url);
+    expect(res.headers.get('content-security-policy')).toMatch(/connect-src 'self'/);
+    const html = await res.text();
+    expect(html).toMatch(/http-equiv="Content-Security-Policy"[\s\S]*connect-src 'self'/);
+  });
+
   it('makes no request beyond its own origin, and no page error occurred', () => {
     const origin = new URL(url).origin;
-    const outside = requests.filter((r) => !r.startsWith(origin) && !r.startsWith('data:') && !r.startsWith('blob:'));
+    const outside = requests.filter((r) => !r.startsWith(origin) && !r.startsWith('data:') && !r.startsWith('blob:') && !r.startsWith('http://127.0.0.2:9/'));
     expect(requests.length).toBeGreaterThan(5);
     expect(outside).toEqual([]);
     expect(pageErrors).toEqual([]);
