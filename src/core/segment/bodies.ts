@@ -3,7 +3,7 @@
  * Validate -> convert -> kernels -> label image (0 = background).
  *
  * 1. Smooth and stretch (no flattening by default: bodies can be large relative to the field).
- * 2. Threshold (Otsu by default). The bodies are the class that falls into more separate components,
+ * 2. Threshold (Otsu by default). The background is the class holding the largest connected region,
  *    unless the polarity is set.
  * 3. Fill holes: background components that do not reach the border become body (after splitting, and
  *    only when one body surrounds them: a gap among several touching bodies stays background).
@@ -41,14 +41,14 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
   }
   let polarity = s.polarity;
   if (polarity === 'auto') {
-    // Bodies are many separate objects; the background is few large connected regions (often one).
-    // So the class that falls into more sizeable components is the bodies. Neither the border nor the
-    // area fraction is a safe cue: dense bodies can cover most of the border and most of the image.
+    // The background is one large connected region around separate objects, so the class holding the
+    // largest single component is the background. Neither the border nor the area fraction is a safe cue:
+    // dense bodies can cover most of the border and most of the image.
     const inv = new Uint8Array(mask.length);
     for (let i = 0; i < mask.length; i++) inv[i] = 1 - mask[i]!;
-    const nBright = sizeable(connectedComponents(cv, mask, w, h, 8).areas);
-    const nDark = sizeable(connectedComponents(cv, inv, w, h, 8).areas);
-    polarity = nBright >= nDark ? 'bright' : 'dark';
+    const bigBright = largest(connectedComponents(cv, mask, w, h, 8).areas);
+    const bigDark = largest(connectedComponents(cv, inv, w, h, 8).areas);
+    polarity = bigDark >= bigBright ? 'bright' : 'dark';
   }
   if (polarity === 'dark') for (let i = 0; i < mask.length; i++) mask[i] = 1 - mask[i]!;
 
@@ -105,11 +105,11 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
   return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
 }
 
-/** Number of components of at least 9 px (specks of noise do not count). */
-function sizeable(areas: Int32Array): number {
-  let n = 0;
-  for (let i = 1; i < areas.length; i++) if (areas[i]! >= 9) n++;
-  return n;
+/** Size of the largest component (label 0, the other class, excluded). */
+function largest(areas: Int32Array): number {
+  let m = 0;
+  for (let i = 1; i < areas.length; i++) if (areas[i]! > m) m = areas[i]!;
+  return m;
 }
 
 /**
