@@ -115,7 +115,7 @@ ul{margin:1mm 0;padding-left:5mm}
 .caution{border:1px solid #c00;padding:2mm 3mm;margin-top:3mm;font-size:9pt}
 .small{font-size:8pt;color:#444}
 @page{size:A4;margin:10mm}
-@media print{body{margin:0;max-width:none}h2{break-after:avoid}table,.row,.caution{break-inside:avoid}}
+@media print{body{margin:0;max-width:none;font-size:8.5pt}h1{font-size:13pt}.headline{font-size:11pt}h2{font-size:10pt;margin-top:2.5mm;break-after:avoid}table{font-size:8pt}th,td{padding:0.6mm 1.2mm}.small{font-size:7pt}.caution{font-size:8pt;margin-top:2mm}table,.row,.caution{break-inside:avoid}}
 `;
 
 /**
@@ -161,7 +161,7 @@ export function grainReportHtml(input: GrainReportInput): string {
 <h1>Grain size report: ${esc(name)}</h1>
 <p class="headline">${headline}</p>
 <div class="row">
-${imageSvg(input, 330, 250)}
+${imageSvg(input, 300, 220)}
 <div>
 <h2>Calibration and field</h2>
 <table>
