@@ -7,7 +7,8 @@
 import { SettingsError, TooFewCellsError } from '../errors';
 import { mulberry32, subSeed } from '../random';
 import type { EdgeRule } from '../settings';
-import { tessellateCells } from '../tessellate';
+import { tessellate, tessellateCells } from '../tessellate';
+import { windowCells } from './window';
 import type { Rect } from '../types';
 import { uniformPoints } from '../synth/seeds';
 import { gammaCdf } from '../stats/dist';
@@ -17,8 +18,16 @@ import {
 } from '../stats/pattern';
 import { PV_AREA_GAMMA_SHAPE } from './constants';
 
-/** Which points the spatial statistics (Clark–Evans, L-function) of the reference are computed on. */
-export type SpatialPoints = 'seeds' | 'centroids';
+/**
+ * How the observed cells relate to the field.
+ * - 'seeds' (points and bodies patterns): the cells are the Voronoi cells of the points found in the field;
+ *   seeds are drawn in the field only, and the spatial statistics are those of the seeds.
+ * - 'window' (walls patterns): the cells are a window on a larger tissue; seeds are drawn in the field plus
+ *   a guard band of 3 mean spacings (a Voronoi vertex farther than that from every seed has probability
+ *   e^{−9π} ≈ 5e−13), the cells are cut by the field border, and the spatial statistics are those of the
+ *   cells' centroids.
+ */
+export type ReferenceLayout = 'seeds' | 'window';
 
 export interface ReferenceOptions {
   /** Number of cells observed in the field (all cells, edge cells included). */
@@ -29,12 +38,15 @@ export interface ReferenceOptions {
   edgeRule: EdgeRule;
   /** Cells smaller than this (px²) are not counted (a segmentation cannot see them). Default 0. */
   minCellAreaPx?: number;
+  /** Default 'seeds'. */
+  layout?: ReferenceLayout;
   /**
-   * 'seeds' (default) compares observed points with Poisson points (points and bodies patterns: the
-   * observed centroids play the seeds); 'centroids' with the centroids of Poisson–Voronoi cells (walls
-   * patterns, whose centroids are those of the cells, not of any seeds).
+   * Seeds per px². Default: cells / area for 'seeds'; for 'window' the λ that makes the expected number of
+   * cells meeting the field equal `cells`, E N = λA + (2/π)·P·√λ + 1 (the kinematic formula for a convex
+   * field of area A and perimeter P with the Poisson–Voronoi mean perimeter 4/√λ; Santaló 1976,
+   * Integral Geometry and Geometric Probability; derived, memory).
    */
-  spatialPoints?: SpatialPoints;
+  density?: number;
   /** Called after each replicate with the fraction done. */
   onProgress?: (fraction: number) => void;
 }
@@ -63,8 +75,8 @@ export interface Envelope {
 
 /** The reference: per-replicate statistics, their summaries and the envelopes of the distributions. */
 export interface Reference {
-  options: { cells: number; field: Rect; replicates: number; seed: number; edgeRule: EdgeRule; minCellAreaPx: number; spatialPoints: SpatialPoints };
-  /** Seeds drawn per replicate (the observed count, raised for the cells the minimum area hides). */
+  options: { cells: number; field: Rect; replicates: number; seed: number; edgeRule: EdgeRule; minCellAreaPx: number; layout: ReferenceLayout; density: number };
+  /** Seeds drawn per replicate (in the guard region for 'window'), raised for the cells the minimum area hides. */
   seedsPerReplicate: number;
   /** Replicate values of each statistic, length R (NaN where a replicate could not give it). */
   values: Record<ReferenceStatistic, Float64Array>;
@@ -112,7 +124,7 @@ export interface Reference {
 export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
   const { cells, field, replicates: R, seed, edgeRule } = opts;
   const minArea = opts.minCellAreaPx && opts.minCellAreaPx > 0 ? opts.minCellAreaPx : 0;
-  const spatial: SpatialPoints = opts.spatialPoints ?? 'seeds';
+  const layout: ReferenceLayout = opts.layout ?? 'seeds';
   if (!Number.isInteger(cells) || cells < 3) throw new TooFewCellsError(`The reference needs at least 3 cells in the field; got ${cells}.`);
   if (!Number.isInteger(R) || R < 1) throw new SettingsError(`The number of replicates must be a positive whole number; got ${R}.`);
   if (!(field.x1 > field.x0 && field.y1 > field.y0)) throw new SettingsError(`The reference field must have a positive width and height; got ${JSON.stringify(field)}.`);
@@ -120,11 +132,26 @@ export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
   const W = field.x1 - field.x0;
   const H = field.y1 - field.y0;
   const warnings: string[] = [];
-  const hidden = minArea > 0 ? gammaCdf((minArea * cells) / (W * H), PV_AREA_GAMMA_SHAPE.value, PV_AREA_GAMMA_SHAPE.value) : 0;
+  const A = W * H;
+  let density = opts.density;
+  if (density === undefined) {
+    if (layout === 'window') {
+      const b = (2 / Math.PI) * 2 * (W + H);
+      const x = (-b + Math.sqrt(b * b + 4 * A * Math.max(0, cells - 1))) / (2 * A);
+      density = x * x;
+    } else density = cells / A;
+  }
+  if (!(density > 0) || !Number.isFinite(density)) throw new SettingsError(`The seed density must be a positive number per px²; got ${density}.`);
+  const hidden = minArea > 0 ? gammaCdf(minArea * density, PV_AREA_GAMMA_SHAPE.value, PV_AREA_GAMMA_SHAPE.value) : 0;
   if (hidden > 0.5) {
     warnings.push(`The minimum cell area (${minArea} px²) hides ${(100 * hidden).toFixed(0)} % of random-seeding cells at this density; the reference is unreliable. Lower the minimum area.`);
   }
-  const seeds = Math.max(3, Math.round(cells / Math.max(0.05, 1 - hidden)));
+  const seedDensity = density / Math.max(0.05, 1 - hidden);
+  const margin = layout === 'window' ? 3 / Math.sqrt(seedDensity) : 0;
+  const region: Rect = { x0: field.x0 - margin, y0: field.y0 - margin, x1: field.x1 + margin, y1: field.y1 + margin };
+  const RW = region.x1 - region.x0;
+  const RH = region.y1 - region.y0;
+  const seeds = Math.max(3, Math.round(seedDensity * RW * RH));
   const radii = lRadii(cells, field);
   const nr = radii.length;
   const G = Math.round(AREA_GRID_MAX / AREA_GRID_STEP) + 1;
@@ -144,22 +171,22 @@ export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
   const aboavW = new Float64Array(MAX_SIDES + 1);
   const aboavV = new Float64Array(MAX_SIDES + 1);
   let interiorTotal = 0;
-  const sqrtLambda = Math.sqrt(seeds / (W * H));
+  const sqrtLambda = Math.sqrt(seeds / (RW * RH));
 
   for (let r = 0; r < R; r++) {
     const rng = mulberry32(subSeed(seed, r));
-    const pts = uniformPoints(rng, seeds, W, H);
+    const pts = uniformPoints(rng, seeds, RW, RH);
     for (let i = 0; i < seeds; i++) {
-      pts[2 * i] = pts[2 * i]! + field.x0;
-      pts[2 * i + 1] = pts[2 * i + 1]! + field.y0;
+      pts[2 * i] = pts[2 * i]! + region.x0;
+      pts[2 * i + 1] = pts[2 * i + 1]! + region.y0;
     }
-    const t = tessellateCells(pts, field);
+    const t = layout === 'window' ? windowCells(tessellate(pts, region), field) : tessellateCells(pts, field);
     const sample = cellSample(t.area, t.edge, t.bbox, field, edgeRule, minArea);
     const m = sample.index.length;
     values.interiorCells[r] = m;
     interiorTotal += m;
-    const sp = spatial === 'seeds' ? pts : visibleCentroids(t.centroid, t.area, minArea);
-    const ce = spatial === 'seeds' ? clarkEvans(sp, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }) : clarkEvans(sp, field);
+    const sp = layout === 'seeds' ? pts : visibleCentroids(t.centroid, t.area, minArea);
+    const ce = layout === 'seeds' ? clarkEvans(sp, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }) : clarkEvans(sp, field);
     values.clarkEvansR[r] = ce.Rcorrected;
     const L = lFunction(sp, field, radii);
     lCurves.set(L, r * nr);
@@ -225,7 +252,7 @@ export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
     warnings.push(`Only ${mean.interiorCells.toFixed(1)} interior cells per replicate on average: the field is too small for a stable reference; use a larger field or more cells.`);
   }
   return {
-    options: { cells, field: { ...field }, replicates: R, seed, edgeRule, minCellAreaPx: minArea, spatialPoints: spatial },
+    options: { cells, field: { ...field }, replicates: R, seed, edgeRule, minCellAreaPx: minArea, layout, density },
     seedsPerReplicate: seeds,
     values,
     mean,
@@ -397,7 +424,8 @@ export function referenceSummary(ref: Reference, opts: { includeValues?: boolean
     seed: ref.options.seed,
     edgeRule: ref.options.edgeRule,
     minCellAreaPx: ref.options.minCellAreaPx,
-    spatialPoints: ref.options.spatialPoints,
+    layout: ref.options.layout,
+    densityPerPx2: round(ref.options.density),
     seedsPerReplicate: ref.seedsPerReplicate,
     interiorCellsTotal: ref.interiorCellsTotal,
     statistics: stats,
