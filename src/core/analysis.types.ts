@@ -1,6 +1,7 @@
 import type { Columns, LabelImage, Rect } from './types';
 import type { Settings } from './settings';
 import type { Tessellation } from './tessellate/types';
+import type { GrainSizeResult } from './grain/types';
 
 /** A JSON-serialisable summary: the keys other tools read are documented in README (summary.json). */
 export type Summary = Record<string, unknown>;
@@ -18,4 +19,6 @@ export interface Analysis {
   /** Voronoi/Delaunay of the centroids, clipped to the field. */
   tessellation: Tessellation;
   summary: Summary;
+  /** ASTM E112 rating with its audit marks (walls pattern with a pixel size), in field coordinates. */
+  grain?: GrainSizeResult | null;
 }

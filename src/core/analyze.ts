@@ -6,7 +6,9 @@
 import type { Analysis } from './analysis.types';
 import { cellOutlines, type Polygons } from './cv/contours';
 import { loadCv } from './cv/index';
-import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TooFewCellsError } from './errors';
+import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TessellabError, TooFewCellsError } from './errors';
+import { grainSize, grainSizeSummary } from './grain/index';
+import type { GrainSizeResult } from './grain/types';
 import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
 import { cellSums, type CellSums } from './measure/kernel';
 import { measureColumns, type MeasureContext } from './measure/registry';
@@ -181,7 +183,28 @@ function measureLabels(
   const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
   const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
   progress('statistics', 1);
-  return { width, height, field, settings, labels, columns, tessellation: tess, summary };
+  let grain: GrainSizeResult | null = null;
+  if (settings.pattern === 'walls') {
+    progress('grain size', 0);
+    const g = rateGrainSize(labels, field, settings);
+    grain = g.result;
+    summary.grainSize = g.summary;
+  }
+  return { width, height, field, settings, labels, columns, tessellation: tess, summary, grain };
+}
+
+/**
+ * ASTM E112 rating of a walls pattern. A missing pixel size or another problem that makes the rating
+ * impossible becomes `{ error }` in the summary; the rest of the analysis stands.
+ */
+function rateGrainSize(labels: LabelImage, field: Rect, settings: Settings): { result: GrainSizeResult | null; summary: Record<string, unknown> } {
+  try {
+    const result = grainSize({ labels, umPerPx: settings.umPerPx, field: { x0: 0, y0: 0, x1: field.x1 - field.x0, y1: field.y1 - field.y0 }, pattern: 'walls', settings });
+    return { result, summary: grainSizeSummary(result) };
+  } catch (e) {
+    if (e instanceof TessellabError) return { result: null, summary: { G: null, error: e.message } };
+    throw e;
+  }
 }
 
 function bboxOf(s: CellSums): Float64Array {
