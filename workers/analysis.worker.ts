@@ -205,6 +205,35 @@ const api: WorkerApi = {
     return Comlink.transfer(r, outlines ? [outlines] : []);
   },
 
+  async grain(id: string) {
+    const a = current.get(id) ?? (await (await openSessionDb()).get('results', id))?.analysis;
+    if (!a) throw new Error('This image has no result yet; analyse it first.');
+    if (!a.labels) throw new Error('Grain size needs a segmented image (walls pattern); a points pattern has no grains.');
+    const { grainSize } = await import('../src/core/grain/index');
+    const { grainReportHtml } = await import('../src/core/export/grainReport');
+    const l = a.labels;
+    const result = grainSize({
+      labels: l, umPerPx: a.settings.umPerPx, field: { x0: 0, y0: 0, x1: l.width, y1: l.height }, pattern: a.settings.pattern, settings: a.settings,
+    });
+    const o = opened.get(id);
+    let imagePngDataUrl: string | undefined;
+    if (o?.image) {
+      const { cropImage } = await pipeline();
+      const crop = cropImage(o.image, a.field);
+      const { encodePng } = await import('../src/core/image/encode');
+      const rgba = displayRgba(crop);
+      const grey = new Uint8Array(crop.width * crop.height);
+      for (let i = 0; i < grey.length; i++) grey[i] = rgba[4 * i];
+      const png = encodePng({ width: crop.width, height: crop.height, data: grey, channels: 1, bitDepth: 8 });
+      let bin = '';
+      for (let i = 0; i < png.length; i += 0x8000) bin += String.fromCharCode(...png.subarray(i, i + 0x8000));
+      imagePngDataUrl = `data:image/png;base64,${btoa(bin)}`;
+    }
+    const name = o?.name ?? (await storedBytes(id))?.name ?? id;
+    const reportHtml = grainReportHtml({ name, result, umPerPx: a.settings.umPerPx as number, width: l.width, height: l.height, imagePngDataUrl });
+    return { id, result, reportHtml, offsetX: a.field.x0, offsetY: a.field.y0 };
+  },
+
   async restore(id: string) {
     const t0 = performance.now();
     const db = await openSessionDb();

@@ -77,7 +77,20 @@ export interface AnalyzeRequest {
   calibrationSource?: 'user' | 'file' | 'none';
 }
 
+/** A grain size rating of the current result, with its printable report. */
+export interface GrainResult {
+  id: string;
+  result: import('../src/core/grain/types').GrainSizeResult;
+  /** Self-contained HTML report (inline CSS and SVG). */
+  reportHtml: string;
+  /** Offset (px) of the label image in the full image: marks and figures are in label coordinates. */
+  offsetX: number;
+  offsetY: number;
+}
+
 export interface WorkerApi {
+  /** Grain size (ASTM E112) of the current result of an image. */
+  grain(id: string): Promise<GrainResult>;
   /** Loads opencv.js (lazily; the page calls it early so that it loads while the person looks around). */
   warmUp(onProgress?: ProgressFn): Promise<void>;
   /** Decodes an image (bytes given, or the copy stored in IndexedDB) and keeps it for later calls. */

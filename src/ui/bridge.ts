@@ -5,7 +5,7 @@
  */
 import * as Comlink from 'comlink';
 import type {
-  AnalysisResult, AnalyzeRequest, ExportFile, ExportKind, OpenResult, PreviewResult, ProgressFn, WorkerApi,
+  AnalysisResult, AnalyzeRequest, ExportFile, GrainResult, ExportKind, OpenResult, PreviewResult, ProgressFn, WorkerApi,
 } from '../../workers/protocol';
 import type { SettingsInput } from '../core/settings';
 
@@ -173,6 +173,11 @@ export class Bridge {
   async restore(id: string): Promise<AnalysisResult | null> {
     await this.ensureOpen(id);
     return this.call((api) => api.restore(id));
+  }
+
+  async grain(id: string): Promise<GrainResult> {
+    await this.ensureOpen(id);
+    return this.call((api) => api.grain(id));
   }
 
   async exportFiles(id: string, kinds: ExportKind[]): Promise<ExportFile[]> {

@@ -132,6 +132,7 @@ describe('Tessellab web app', () => {
     expect(strFromU8(zip[`${stem}/${stem}.cells.csv`])).toBe(readFileSync(join(cliOut, `${stem}.cells.csv`), 'utf8'));
     const summaryRows = strFromU8(zip['summary.csv']).trim().split('\n');
     expect(summaryRows.length).toBe(3); // header + demo + fixture
+    expect(summaryRows[2].split(',')[0]).toBe(fixture.name);
     await shot('03-export');
   });
 
@@ -225,11 +226,35 @@ describe('Tessellab web app', () => {
     await shot('09-reloaded-randomness');
   });
 
+  it('a sample with a pixel size in its tags is calibrated from them and gets a grain size number', async () => {
+    await page.getByLabel('Add a sample image').selectOption('grains-calibrated.png');
+    const s = await settled('grains-calibrated.png');
+    expect(s.status).toBe('done');
+    await selectEntry('grains-calibrated.png');
+    await page.getByRole('tab', { name: 'Scale' }).click();
+    // sample-images/manifest.json: 0.5 µm/px stored in the PNG pHYs chunk.
+    await expect.poll(() => page.getByTestId('calibration').textContent()).toMatch(/0\.5 µm per pixel.*from the file's tags/);
+    await page.getByRole('tab', { name: 'Grain size' }).click();
+    await expect.poll(() => page.getByTestId('grain-g').textContent(), { timeout: 30_000 }).toMatch(/G = \d+\.\d/);
+    const text = (await page.getByTestId('grain-g').textContent()) as string;
+    const G = Number(/G = (-?\d+\.\d)/.exec(text)?.[1]);
+    // ASTM E112 planimetric: G = 3.321928 log10 N_A − 2.954 (REFERENCE.md, derived). 700 grains in
+    // 1000 x 800 px at 0.5 µm/px = 0.2 mm² gives N_A ≈ 3500 mm⁻², G ≈ 8.8; edge grains and the count rule move it a few tenths.
+    expect(G).toBeGreaterThan(8.2);
+    expect(G).toBeLessThan(9.4);
+    await shot('10-grain-size');
+    const [popup] = await Promise.all([context.waitForEvent('page'), page.getByTestId('grain-report').click()]);
+    await popup.waitForLoadState();
+    expect(await popup.content()).toMatch(/ASTM E112/);
+    await popup.screenshot({ path: join(SCREENSHOTS, '11-grain-report.png') });
+    await popup.close();
+  });
+
   it('the dark theme and the help overlay read well', async () => {
     await page.getByRole('button', { name: /Switch to dark theme/ }).click();
     await page.keyboard.press('?');
     await expect.poll(() => page.getByRole('dialog').count()).toBe(1);
-    await shot('10-dark-help');
+    await shot('12-dark-help');
     await page.keyboard.press('Escape');
     await page.getByRole('button', { name: /Switch to light theme/ }).click();
   });

@@ -6,7 +6,7 @@
 import { defaultSettings, resolveSettings, type Settings } from '../../core/settings';
 import type { EditOp } from '../../core/edit/labels';
 import type { Rect } from '../../core/types';
-import type { AnalysisResult, PreviewResult } from '../../../workers/protocol';
+import type { AnalysisResult, GrainResult, PreviewResult } from '../../../workers/protocol';
 import { Bridge, CancelledRunError, SupersededError, WorkerCrashedError } from '../bridge';
 import {
   deleteEntry, loadEntries, loadSession, saveEntry, saveSession, type EntryStatus, type Layers, type StoredEntry,
@@ -16,13 +16,14 @@ import {
 export const WEB_MAX_PIXELS = 64_000_000;
 
 export type Tool = 'pan' | 'scale' | 'field' | 'split';
-export type PanelName = 'scale' | 'detect' | 'cells' | 'randomness' | 'export';
+export type PanelName = 'scale' | 'detect' | 'cells' | 'randomness' | 'grain' | 'export';
 export const PANELS: { name: PanelName; label: string; key: string }[] = [
   { name: 'scale', label: 'Scale', key: '1' },
   { name: 'detect', label: 'Detect', key: '2' },
   { name: 'cells', label: 'Cells', key: '3' },
   { name: 'randomness', label: 'Randomness', key: '4' },
-  { name: 'export', label: 'Export', key: '5' },
+  { name: 'grain', label: 'Grain size', key: '5' },
+  { name: 'export', label: 'Export', key: '6' },
 ];
 
 type Mode = 'restore' | 'segment' | 'measure';
@@ -64,6 +65,8 @@ export class Entry {
   bitmap = $state.raw<ImageBitmap | null>(null);
   result = $state.raw<AnalysisResult | null>(null);
   preview = $state.raw<PreviewResult | null>(null);
+  /** Grain size of `result` (computed when the Grain size panel asks), or its error. */
+  grain = $state.raw<{ of: AnalysisResult; value: GrainResult | null; error: string | null } | null>(null);
   storedCount = $state<number | null>(null);
   /** File bytes until the worker has stored them. */
   bytes: Uint8Array | null = null;
@@ -175,7 +178,6 @@ export class AppState {
           this.demoAdded = true;
           const e = this.addBytes(d.name, d.bytes);
           if (d.settings) Object.assign(e.settings, d.settings);
-          if (d.umPerPx) e.settings.umPerPx = d.umPerPx;
         }
       } catch (err) {
         this.banner = `The demo image could not be loaded (${err instanceof Error ? err.message : String(err)}); drop your own images to start.`;
@@ -211,6 +213,8 @@ export class AppState {
     if (from) {
       const s = $state.snapshot(from.settings) as Settings;
       s.field = null;
+      // The pixel size is per image: its own tags, or what the person sets ("Use this scale for all images").
+      s.umPerPx = null;
       e.settings = s;
     }
     if (/\.(csv|txt)$/i.test(name)) { e.kind = 'points'; e.settings.pattern = 'points'; }
@@ -440,6 +444,19 @@ export class AppState {
     e.stage = '';
     e.fraction = 1;
     e.storedCount = r.analysis.tessellation.points.length / 2;
+  }
+
+  /** Computes the grain size of an entry's current result once (the Grain size panel calls it). */
+  async rateGrains(e: Entry): Promise<void> {
+    const r = e.result;
+    if (!r || e.grain?.of === r) return;
+    e.grain = { of: r, value: null, error: null };
+    try {
+      const g = await this.bridge.grain(e.id);
+      if (e.result === r) e.grain = { of: r, value: g, error: null };
+    } catch (err) {
+      if (e.result === r) e.grain = { of: r, value: null, error: err instanceof Error ? err.message.replace(/^Error: /, '') : String(err) };
+    }
   }
 
   /** Re-runs the analysis of an entry (after an error or a cancel). */
