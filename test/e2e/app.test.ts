@@ -162,7 +162,72 @@ describe('Tessellab web app', () => {
     await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before);
   });
 
+  it('a line drawn across a cell splits it; undo restores the count', async () => {
+    const before = (await settled(fixture.name)).count as number;
+    // Screen position of an interior cell's centroid and the extent of its bounding box, from the Bench's view.
+    const target = await page.evaluate(() => {
+      const app = (globalThis as unknown as { __tessellab: { selected: { result: { analysis: { field: { x0: number; y0: number }; tessellation: { points: Float64Array; edge: Uint8Array; area: Float64Array } }; overlay: { cellBoxes: Int32Array } } } } }).__tessellab;
+      const { analysis, overlay } = app.selected.result;
+      const t = analysis.tessellation;
+      let best = 0;
+      for (let i = 0; i < t.edge.length; i++) if (!t.edge[i] && t.area[i] > t.area[best]) best = i;
+      const b = overlay.cellBoxes;
+      return { x: t.points[2 * best], y: t.points[2 * best + 1], y0: b[4 * best + 1] + analysis.field.y0, y1: b[4 * best + 3] + analysis.field.y0 };
+    });
+    const box = (await page.getByTestId('bench').boundingBox())!;
+    // The Bench fits the image: scale = min((w - 24) / W, (h - 24) / H), centred.
+    const [W, H] = [640, 480];
+    const k = Math.min((box.width - 24) / W, (box.height - 24) / H);
+    const ox = box.x + (box.width - W * k) / 2, oy = box.y + (box.height - H * k) / 2;
+    await page.getByRole('button', { name: 'Split', exact: true }).first().click();
+    const h = (target.y1 - target.y0) * 0.3;
+    await page.mouse.move(ox + target.x * k, oy + (target.y - h) * k);
+    await page.mouse.down();
+    await page.mouse.move(ox + target.x * k, oy + target.y * k, { steps: 4 });
+    await page.mouse.move(ox + target.x * k, oy + (target.y + h) * k, { steps: 4 });
+    await page.mouse.up();
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before + 1);
+    await shot('04b-split');
+    await page.keyboard.press('Escape');
+    await page.keyboard.press('Control+z');
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before);
+  });
+
+  it('moving a Detect slider shows a preview on a downscaled copy, then the full result on release', async () => {
+    await page.getByRole('tab', { name: 'Detect' }).click();
+    const slider = page.getByLabel(/Smoothing/);
+    type Sel = { __tessellab: { selected: { preview: { count: number; scale: number } | null; status: string; result: unknown } } };
+    const resultBefore = await page.evaluate(() => (globalThis as unknown as { __tessellab: { selected: { result: { elapsedMs: number } } } }).__tessellab.selected.result.elapsedMs);
+    // Dragging: 'input' events only. The preview arrives while the full result stays as it was.
+    await slider.evaluate((el: HTMLInputElement) => { el.value = '1.5'; el.dispatchEvent(new Event('input', { bubbles: true })); });
+    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview?.count ?? 0), { timeout: 30_000 }).toBeGreaterThan(100);
+    expect(await page.evaluate(() => (globalThis as unknown as { __tessellab: { selected: { result: { elapsedMs: number } } } }).__tessellab.selected.result.elapsedMs)).toBe(resultBefore);
+    await shot('04c-preview');
+    // Release: 'change' runs the full analysis, which replaces the preview.
+    await slider.evaluate((el: HTMLInputElement) => el.dispatchEvent(new Event('change', { bubbles: true })));
+    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview), { timeout: 30_000 }).toBeNull();
+    const s = await settled(fixture.name);
+    expect(s.status).toBe('done');
+    // Put it back, so later tests see the default settings.
+    await slider.evaluate((el: HTMLInputElement) => { el.value = '0.7'; el.dispatchEvent(new Event('input', { bubbles: true })); el.dispatchEvent(new Event('change', { bubbles: true })); });
+    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview), { timeout: 30_000 }).toBeNull();
+    await settled(fixture.name);
+  });
+
+  it('a scale line of zero length is refused next to it', async () => {
+    await page.getByRole('tab', { name: 'Scale' }).click();
+    await page.getByRole('button', { name: 'Scale line' }).first().click();
+    const box = (await page.getByTestId('bench').boundingBox())!;
+    // A click without dragging draws no line; the panel asks for one.
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await page.getByLabel('Bar length (µm)').fill('100');
+    await page.getByRole('button', { name: 'Set scale' }).click();
+    await expect.poll(() => page.getByTestId('bar-error').textContent()).toMatch(/Draw a line|zero length/);
+    await page.keyboard.press('Escape');
+  });
+
   it('clicking a cell on the Bench selects it and highlights its row', async () => {
+    await page.getByRole('tab', { name: 'Cells' }).click();
     const box = (await page.getByTestId('bench').boundingBox())!;
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
     await expect.poll(() => page.locator('[role=row][aria-selected=true]').count()).toBe(1);
