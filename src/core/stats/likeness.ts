@@ -1,0 +1,72 @@
+/**
+ * Voronoi-likeness: how well the Voronoi cells of the segmented cells' own centroids reproduce the
+ * segmented cells. Near 1: the pattern is what seeding at the centroids would grow (a centroidal Voronoi
+ * tessellation); well below 1: the walls are not where the centroids' bisectors would put them.
+ */
+import { Delaunay } from 'd3-delaunay';
+import type { Tessellation } from '../tessellate';
+import type { LabelImage } from '../types';
+
+export interface VoronoiLikeness {
+  /** Per cell: the fraction of its pixels that lie in the Voronoi cell of its own centroid (NaN if no pixel sampled). */
+  overlap: Float64Array;
+  /** Per cell: segmented area / Voronoi area (walls make this a little below 1). */
+  areaRatio: Float64Array;
+  /** Median of `overlap` over interior cells. */
+  medianOverlap: number;
+  /** Pixel-weighted overlap over interior cells: Σ|Sᵢ ∩ Vᵢ| / Σ|Sᵢ|. */
+  overallOverlap: number;
+  /** Sampling step in px (1 = every pixel). */
+  stepPx: number;
+}
+
+/**
+ * For each labelled pixel (on a grid of `stepPx`, chosen so that at most about 4 million pixels are
+ * looked at), finds the nearest centroid (Delaunay point location, walking from the previous answer) and
+ * counts whether it is the pixel's own cell. Pixel centres are at (x + 0.5, y + 0.5).
+ *
+ * @param labels the segmentation; cell k has label k + 1
+ * @param t the tessellation of the cells' centroids (point k = cell k)
+ * @param edge per-cell edge flags (edge cells are left out of the summaries)
+ */
+export function voronoiLikeness(labels: LabelImage, t: Tessellation, edge: Uint8Array): VoronoiLikeness {
+  const n = t.area.length;
+  const inside = new Float64Array(n);
+  const total = new Float64Array(n);
+  const pixels = new Float64Array(n);
+  const step = Math.max(1, Math.ceil(Math.sqrt((labels.width * labels.height) / 4e6)));
+  const delaunay = new Delaunay(t.points.slice());
+  let hint = 0;
+  const { x0, y0, x1, y1 } = t.field;
+  for (let y = Math.max(0, Math.floor(y0)); y < Math.min(labels.height, Math.ceil(y1)); y += step) {
+    for (let x = Math.max(0, Math.floor(x0)); x < Math.min(labels.width, Math.ceil(x1)); x += step) {
+      const l = labels.labels[y * labels.width + x]!;
+      if (l <= 0 || l > n) continue;
+      const c = delaunay.find(x + 0.5, y + 0.5, hint);
+      hint = c;
+      total[l - 1]!++;
+      if (c === l - 1) inside[l - 1]!++;
+    }
+  }
+  for (let i = 0; i < labels.labels.length; i++) {
+    const l = labels.labels[i]!;
+    if (l > 0 && l <= n) pixels[l - 1]!++;
+  }
+  const overlap = new Float64Array(n);
+  const areaRatio = new Float64Array(n);
+  const list: number[] = [];
+  let si = 0;
+  let st = 0;
+  for (let k = 0; k < n; k++) {
+    overlap[k] = total[k]! > 0 ? inside[k]! / total[k]! : Number.NaN;
+    areaRatio[k] = t.area[k]! > 0 ? pixels[k]! / t.area[k]! : Number.NaN;
+    if (!edge[k] && total[k]! > 0) {
+      list.push(overlap[k]!);
+      si += inside[k]!;
+      st += total[k]!;
+    }
+  }
+  list.sort((a, b) => a - b);
+  const med = list.length ? (list.length % 2 ? list[(list.length - 1) / 2]! : (list[list.length / 2 - 1]! + list[list.length / 2]!) / 2) : Number.NaN;
+  return { overlap, areaRatio, medianOverlap: med, overallOverlap: st > 0 ? si / st : Number.NaN, stepPx: step };
+}

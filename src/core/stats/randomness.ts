@@ -1,0 +1,403 @@
+/**
+ * Observed versus random seeding: every statistic of the pattern beside its Monte Carlo reference, with
+ * p-values, plot data, and a verdict in the project's words.
+ */
+import { describeError } from '../errors';
+import type { Settings } from '../settings';
+import type { Tessellation } from '../tessellate';
+import type { LabelImage } from '../types';
+import {
+  PV_ABOAV_A, PV_AREA_CV, PV_AREA_GAMMA_SHAPE, PV_LEWIS_SLOPE, PV_SIDES_DISTRIBUTION, PV_SIDES_VARIANCE, LEMAITRE_CONSTANT, LEMAITRE_RANGE,
+} from '../reference/constants';
+import {
+  AREA_GRID_MAX, AREA_GRID_STEP, ecdfOnGrid, maxDeviation, referenceMonteCarlo, referenceSummary, sidesChiSquare,
+  type Reference, type ReferenceLayout, type ReferenceStatistic,
+} from '../reference/montecarlo';
+import { chiSquareUpper, normalTwoSided } from './dist';
+import { largestGap, type LargestGap } from './gap';
+import { voronoiLikeness } from './likeness';
+import {
+  MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
+} from './pattern';
+
+/** The three verdicts (VOCABULARY.md). */
+export type Verdict = 'more regular than random' | 'consistent with random seeding' | 'more irregular than random';
+
+/** Fewest interior cells for the side and area statistics and for the verdict. */
+export const MIN_INTERIOR_CELLS = 10;
+
+export interface RandomnessInput {
+  tessellation: Tessellation;
+  /** Observed per-cell side numbers (walls: from the segmentation; else the tessellation's). */
+  sides: Int32Array;
+  /** Observed per-cell areas (px²). */
+  area: Float64Array;
+  /** Observed per-cell edge flags. */
+  edge: Uint8Array;
+  /** Observed per-cell bounding boxes x0, y0, x1, y1 (px); default the tessellation's. Used by the 'weight' rule. */
+  bbox?: Float64Array;
+  /** The segmentation (walls, bodies), for Voronoi-likeness; null or absent for points patterns. */
+  labels?: LabelImage | null;
+  settings: Settings;
+  /** A reference drawn beforehand (for the same field, cell count, edge rule); drawn here if absent. */
+  reference?: Reference;
+  /** Observed neighbour graph (walls: from the segmentation), CSR; default the tessellation's. */
+  neighbours?: { offsets: Int32Array; index: Int32Array };
+  /** Minimum cell area (px²) the observation used; default settings.minCellAreaPx when positive and the pattern is not points. */
+  minCellAreaPx?: number;
+}
+
+/** One row of the tests table. */
+export interface TestRow {
+  key: string;
+  name: string;
+  statistic: number | null;
+  referenceMean: number | null;
+  referenceSd: number | null;
+  /** Monte Carlo p-value (two-sided for signed statistics, upper tail for distances). */
+  pValue: number | null;
+  /** Which way the observation departs from the reference mean, when the statistic has a direction. */
+  direction: 'regular' | 'irregular' | null;
+  /** The infinite-plane published value, where there is one (for comparison only). */
+  published: number | null;
+  /** Why a statistic is missing, if it is. */
+  note?: string;
+}
+
+/** Everything the Randomness panel and summary.json need; plain JSON. */
+export interface RandomnessResult {
+  verdict: Verdict | null;
+  /** The verdict with the statistic and p-value behind it, or why there is none. */
+  verdictText: string;
+  alpha: number;
+  basis: { test: string; combines: string[]; pValue: number | null; strongest: string | null };
+  tests: TestRow[];
+  reference: Record<string, unknown> | null;
+  cells: number;
+  interiorCells: number;
+  sides: {
+    n: number[];
+    observed: number[];
+    reference: (number | null)[];
+    referenceLo: (number | null)[];
+    referenceHi: (number | null)[];
+    published: (number | null)[];
+    mean: number | null;
+    mu2: number | null;
+    p6: number | null;
+    chiSquare: { statistic: number | null; dof: number; pAsymptotic: number | null; pValue: number | null };
+    lemaitre: { value: number | null; expected: number; applies: boolean };
+  };
+  areas: {
+    cv: number | null;
+    variance: number | null;
+    gammaShape: number | null;
+    ksDistance: number | null;
+    ecdf: { y: number[]; observed: number[]; mean: (number | null)[]; lo: (number | null)[]; hi: (number | null)[] };
+    histogram: { y0: number[]; binWidth: number; observed: number[]; mean: (number | null)[]; lo: (number | null)[]; hi: (number | null)[] };
+  };
+  clarkEvans: { R: number | null; Runcorrected: number | null; se: number | null; z: number | null; pNormal: number | null; points: number; referenceMean: number | null; referenceSd: number | null; pValue: number | null };
+  lFunction: { rPx: number[]; observed: (number | null)[]; mean: (number | null)[]; lo: (number | null)[]; hi: (number | null)[]; maxDeviation: number | null; pValue: number | null };
+  lewis: { n: number[]; observed: number[]; count: number[]; fit: JsonFit; reference: { n: number[]; value: (number | null)[]; slopeMean: number | null; slopeSd: number | null } };
+  aboavWeaire: { n: number[]; observed: number[]; count: number[]; fit: JsonFit; a: number | null; reference: { n: number[]; value: (number | null)[]; aMean: number | null; aSd: number | null } };
+  largestGap: { x: number; y: number; radius: number; cell: number } | null;
+  voronoiLikeness: { medianOverlap: number | null; overallOverlap: number | null; stepPx: number } | null;
+  warnings: string[];
+}
+
+type JsonFit = { slope: number | null; intercept: number | null; r2: number | null };
+
+const num = (v: number | undefined | null): number | null => (v !== undefined && v !== null && Number.isFinite(v) ? v : null);
+const list = (a: ArrayLike<number>): (number | null)[] => Array.from(a, (v) => num(v));
+const fitJson = (f: LineFit): JsonFit => ({ slope: num(f.slope), intercept: num(f.intercept), r2: num(f.r2) });
+
+/**
+ * Monte Carlo p-value of an observed value t among finite replicate values: two-sided
+ * min(1, 2·min(1 + #{T ≥ t}, 1 + #{T ≤ t})/(R + 1)), or upper-tail (1 + #{T ≥ t})/(R + 1).
+ * (Barnard 1963; Besag & Diggle 1977, Appl. Stat. 26:327; pub, memory.)
+ */
+export function monteCarloP(t: number, values: ArrayLike<number>, tail: 'two' | 'upper'): number | null {
+  if (!Number.isFinite(t)) return null;
+  let R = 0;
+  let ge = 0;
+  let le = 0;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i]!;
+    if (!Number.isFinite(v)) continue;
+    R++;
+    if (v >= t) ge++;
+    if (v <= t) le++;
+  }
+  if (!R) return null;
+  if (tail === 'upper') return (1 + ge) / (R + 1);
+  return Math.min(1, (2 * Math.min(1 + ge, 1 + le)) / (R + 1));
+}
+
+/**
+ * Combined Monte Carlo test of several signed statistics by their largest standardised departure: with the
+ * mean and sd of each statistic over all R + 1 patterns (the observed one and the replicates,
+ * exchangeable under random seeding), T = max_s |x_s − mean_s| / sd_s, and the p-value is the observed T's
+ * rank among the R + 1 values of T, (#{T_j ≥ T_obs}) / (R + 1). Being a symmetric function of the R + 1
+ * patterns, T keeps the test exactly at its nominal size whatever the dependence between the statistics,
+ * and unlike a smallest-rank combination it has no ties that would make it coarse.
+ * (Besag & Diggle 1977, Appl. Stat. 26:327, for the Monte Carlo test; the maximum of standardised
+ * statistics is a usual global-envelope form, Myllymäki et al. 2017, J. R. Stat. Soc. B 79:381; pub, memory.)
+ *
+ * @param observed observed value of each statistic
+ * @param replicates replicate values of each statistic (same length R each); replicates with any
+ *   non-finite value are dropped
+ * @returns the combined p-value, the index of the statistic with the largest observed departure, and
+ *   each statistic's own two-sided rank p-value
+ */
+export function combinedMaxZ(observed: number[], replicates: ArrayLike<number>[]): { p: number; strongest: number; pEach: number[] } | null {
+  const S = observed.length;
+  if (!S) return null;
+  const R0 = replicates[0]!.length;
+  const keep: number[] = [];
+  for (let r = 0; r < R0; r++) if (replicates.every((v) => Number.isFinite(v[r]!))) keep.push(r);
+  const N = keep.length + 1;
+  if (N < 3) return null;
+  const T = new Float64Array(N);
+  const zObs: number[] = [];
+  const pEach: number[] = [];
+  for (let s = 0; s < S; s++) {
+    const v = new Float64Array(N);
+    keep.forEach((r, j) => (v[j] = replicates[s]![r]!));
+    v[N - 1] = observed[s]!;
+    let mean = 0;
+    for (let j = 0; j < N; j++) mean += v[j]!;
+    mean /= N;
+    let sd = 0;
+    for (let j = 0; j < N; j++) sd += (v[j]! - mean) ** 2;
+    sd = Math.sqrt(sd / (N - 1)) || 1;
+    for (let j = 0; j < N; j++) {
+      const z = Math.abs(v[j]! - mean) / sd;
+      if (z > T[j]!) T[j] = z;
+    }
+    zObs.push(Math.abs(v[N - 1]! - mean) / sd);
+    pEach.push(monteCarloP(observed[s]!, v.subarray(0, N - 1), 'two')!);
+  }
+  let count = 0;
+  for (let j = 0; j < N; j++) if (T[j]! >= T[N - 1]!) count++;
+  let strongest = 0;
+  for (let s = 1; s < S; s++) if (zObs[s]! > zObs[strongest]!) strongest = s;
+  return { p: count / N, strongest, pEach };
+}
+
+/** The statistics the verdict combines, the words for them, and which sign means "regular". */
+const VERDICT_STATISTICS: { key: ReferenceStatistic; label: string; regularIfBelow: boolean }[] = [
+  { key: 'mu2', label: 'side-number variance μ₂', regularIfBelow: true },
+  { key: 'areaCv', label: 'area coefficient of variation', regularIfBelow: true },
+  { key: 'clarkEvansR', label: 'Clark–Evans R', regularIfBelow: false },
+];
+
+const fmt = (v: number): string => (Math.abs(v) >= 100 ? v.toFixed(0) : Math.abs(v) >= 1 ? v.toFixed(3) : v.toPrecision(3));
+const fmtP = (p: number): string => (p < 0.001 ? p.toExponential(1) : p.toFixed(3));
+
+/**
+ * Observed statistics of the pattern, each beside its random-seeding reference, and the verdict.
+ *
+ * The verdict rests on one combined Monte Carlo test (see {@link combinedMaxZ}) of three statistics that
+ * each say which way a pattern departs from random seeding: the side-number variance μ₂ and the area
+ * coefficient of variation (both lower for regular patterns) and the edge-corrected Clark–Evans index
+ * (higher for regular patterns). If the combined p-value is below settings.reference.alpha, the direction
+ * of the statistic with the largest standardised departure gives "more regular than random" or "more irregular than
+ * random"; otherwise "consistent with random seeding". The other tests are reported beside it.
+ *
+ * Nothing computed is thrown away: statistics that cannot be computed (too few cells, no reference) are
+ * null with the reason in `warnings`.
+ */
+export function randomness(input: RandomnessInput): RandomnessResult {
+  const { tessellation: t, sides, area, edge, settings } = input;
+  const warnings: string[] = [];
+  const field = t.field;
+  const n = area.length;
+  const alpha = settings.reference.alpha;
+  const minArea = input.minCellAreaPx ?? (settings.pattern !== 'points' && settings.minCellAreaPx > 0 ? settings.minCellAreaPx : 0);
+  const layout: ReferenceLayout = settings.pattern === 'walls' ? 'window' : 'seeds';
+  const bbox = input.bbox ?? t.bbox;
+  const graph = input.neighbours ?? { offsets: t.neighbourOffsets, index: t.neighbourIndex };
+
+  let ref: Reference | null = input.reference ?? null;
+  if (!ref) {
+    if (settings.reference.replicates < 1) {
+      warnings.push('No random-seeding reference was drawn (reference.replicates is 0); only the published constants are shown. Set replicates to 199 for tests.');
+    } else {
+      try {
+        ref = referenceMonteCarlo({
+          cells: n, field, replicates: settings.reference.replicates, seed: settings.reference.seed, edgeRule: settings.edgeRule, minCellAreaPx: minArea, layout,
+        });
+      } catch (e) {
+        warnings.push(`The random-seeding reference could not be drawn: ${describeError(e)}`);
+      }
+    }
+  }
+  if (ref) {
+    warnings.push(...ref.warnings);
+    const minP = 1 / (ref.options.replicates + 1);
+    if (minP > alpha) {
+      warnings.push(`With ${ref.options.replicates} replicates the smallest Monte Carlo p-value is ${fmtP(minP)}, above α = ${alpha}: no test can reach significance. Use at least ${Math.ceil(1 / alpha) - 1} replicates.`);
+    }
+  }
+
+  // Observed cells in the statistics.
+  const sample = cellSample(area, edge, bbox, field, settings.edgeRule, minArea);
+  const m = sample.index.length;
+  const enough = m >= MIN_INTERIOR_CELLS;
+  if (!enough) {
+    warnings.push(`The side, area and size–topology statistics need at least ${MIN_INTERIOR_CELLS} interior cells; this field has ${m}. Use a larger field or a higher magnification.`);
+  }
+  const ss = m > 0 ? sideStats(sides, sample) : null;
+  const as = m > 0 ? areaStats(area, sample) : null;
+  const pts = t.points;
+  // The tessellation is that of these very points, so its neighbour graph holds every nearest neighbour.
+  const ce = clarkEvans(pts, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex });
+  if (pts.length / 2 < 2) warnings.push('Clark–Evans and the L-function need at least 2 points.');
+  const radii = ref ? ref.lRadii : lRadii(n, field);
+  const L = lFunction(pts, field, radii);
+  const lewis = m > 0 && as ? lewisLaw(sides, area, sample, as.mean) : null;
+  const aw = m > 0 ? aboavWeaireLaw(sides, edge, graph.offsets, graph.index, sample) : null;
+  if (enough && lewis && !Number.isFinite(lewis.fit.slope)) warnings.push(`Lewis's law needs at least 2 side classes with ${3} or more cells.`);
+
+  const obs: Record<string, number> = {
+    mu2: enough && ss ? ss.mu2 : Number.NaN,
+    p6: enough && ss ? ss.p6 : Number.NaN,
+    meanSides: enough && ss ? ss.mean : Number.NaN,
+    areaCv: enough && as ? as.cv : Number.NaN,
+    gammaShape: enough && as ? as.gammaShape : Number.NaN,
+    clarkEvansR: ce.Rcorrected,
+    lewisSlope: enough && lewis ? lewis.fit.slope : Number.NaN,
+    aboavA: enough && aw ? aw.a : Number.NaN,
+    sidesChiSquare: enough && ss && ref ? sidesChiSquare(ss.p, m, ref.sides.mean) : Number.NaN,
+    ksDistance: enough && as && ref ? ksDistance(as, (y) => ref!.areaCdf.at(y)) : Number.NaN,
+    lMaxDeviation: ref ? maxDeviation(L, ref.lFunction.mean) : Number.NaN,
+  };
+
+  const row = (key: ReferenceStatistic, name: string, tail: 'two' | 'upper', published: number | null, regularIfBelow: boolean | null, note?: string): TestRow => {
+    const v = obs[key]!;
+    const mean = ref ? ref.mean[key] : Number.NaN;
+    const direction = regularIfBelow === null || !Number.isFinite(v) || !Number.isFinite(mean) ? null : (v < mean) === regularIfBelow ? 'regular' : 'irregular';
+    return {
+      key, name, statistic: num(v), referenceMean: num(mean), referenceSd: num(ref ? ref.sd[key] : Number.NaN),
+      pValue: ref ? monteCarloP(v, ref.values[key], tail) : null, direction, published,
+      ...(note ? { note } : !Number.isFinite(v) ? { note: 'not computed (see warnings)' } : {}),
+    };
+  };
+  const tests: TestRow[] = [
+    row('mu2', 'side-number variance μ₂', 'two', PV_SIDES_VARIANCE.value, true),
+    row('p6', 'hexagon fraction p(6)', 'two', PV_SIDES_DISTRIBUTION[6]!.value, false),
+    row('meanSides', 'mean side number', 'two', 6, null),
+    row('sidesChiSquare', 'side distribution X² (bins ≤4, 5, 6, 7, ≥8)', 'upper', null, null),
+    row('areaCv', 'area coefficient of variation', 'two', PV_AREA_CV.value, true),
+    row('gammaShape', 'gamma shape of normalised areas', 'two', PV_AREA_GAMMA_SHAPE.value, false),
+    row('ksDistance', 'Kolmogorov–Smirnov distance of normalised areas', 'upper', null, null),
+    row('clarkEvansR', 'Clark–Evans R (edge-corrected)', 'two', layout === 'seeds' ? 1 : null, false),
+    row('lMaxDeviation', 'L-function maximum deviation (px)', 'upper', null, null),
+    row('lewisSlope', "Lewis's law slope", 'two', PV_LEWIS_SLOPE.value, null),
+    row('aboavA', 'Aboav–Weaire a', 'two', PV_ABOAV_A.value, null),
+  ];
+
+  // The verdict.
+  let verdict: Verdict | null = null;
+  let verdictText: string;
+  let basisP: number | null = null;
+  let strongest: string | null = null;
+  const used = VERDICT_STATISTICS.filter((s) => Number.isFinite(obs[s.key]!));
+  if (!ref) {
+    verdictText = 'No verdict: the random-seeding reference is missing (see warnings).';
+  } else if (!enough) {
+    verdictText = `No verdict: it needs at least ${MIN_INTERIOR_CELLS} interior cells; this field has ${m}.`;
+  } else if (!used.length) {
+    verdictText = 'No verdict: none of μ₂, the area CV and Clark–Evans R could be computed.';
+  } else {
+    const c = combinedMaxZ(used.map((s) => obs[s.key]!), used.map((s) => ref!.values[s.key]));
+    if (!c) {
+      verdictText = 'No verdict: the reference has no complete replicate.';
+    } else {
+      basisP = c.p;
+      const s = used[c.strongest]!;
+      const v = obs[s.key]!;
+      const regular = (v < ref.mean[s.key]) === s.regularIfBelow;
+      strongest = s.label;
+      verdict = c.p < alpha ? (regular ? 'more regular than random' : 'more irregular than random') : 'consistent with random seeding';
+      verdictText = `${verdict} (combined Monte Carlo test of ${used.map((u) => u.label).join(', ')}: p = ${fmtP(c.p)} at α = ${alpha}, ${ref.options.replicates} replicates; `
+        + `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)})`;
+    }
+  }
+
+  // Plot data.
+  const G = Math.round(AREA_GRID_MAX / AREA_GRID_STEP) + 1;
+  const grid = ref ? ref.areaGrid : Float64Array.from({ length: G }, (_, k) => k * AREA_GRID_STEP);
+  const ecdf = new Float64Array(grid.length);
+  if (as) ecdfOnGrid(as, grid, ecdf, 0);
+  const hist = Array.from({ length: grid.length - 1 }, (_, k) => (ecdf[k + 1]! - ecdf[k]!) / AREA_GRID_STEP);
+  const nAxis = Array.from({ length: MAX_SIDES + 1 }, (_, k) => k);
+  const none = (len: number) => new Array<number | null>(len).fill(null);
+  let gap: LargestGap | null = null;
+  try {
+    gap = largestGap(t);
+  } catch (e) {
+    warnings.push(`The largest gap could not be found: ${describeError(e)}`);
+  }
+  let likeness: RandomnessResult['voronoiLikeness'] = null;
+  if (input.labels) {
+    const vl = voronoiLikeness(input.labels, t, edge);
+    likeness = { medianOverlap: num(vl.medianOverlap), overallOverlap: num(vl.overallOverlap), stepPx: vl.stepPx };
+  }
+  const chi = obs.sidesChiSquare!;
+
+  return {
+    verdict,
+    verdictText,
+    alpha,
+    basis: { test: 'combined Monte Carlo test (largest standardised departure)', combines: used.map((u) => u.label), pValue: basisP, strongest },
+    tests,
+    reference: ref ? { R: ref.options.replicates, seed: ref.options.seed, ...referenceSummary(ref) } : null,
+    cells: n,
+    interiorCells: m,
+    sides: {
+      n: nAxis,
+      observed: ss ? Array.from(ss.p) : new Array(MAX_SIDES + 1).fill(0),
+      reference: ref ? list(ref.sides.mean) : none(MAX_SIDES + 1),
+      referenceLo: ref ? list(ref.sides.lo) : none(MAX_SIDES + 1),
+      referenceHi: ref ? list(ref.sides.hi) : none(MAX_SIDES + 1),
+      published: nAxis.map((k) => PV_SIDES_DISTRIBUTION[k]?.value ?? null),
+      mean: num(ss?.mean),
+      mu2: num(ss?.mu2),
+      p6: num(ss?.p6),
+      chiSquare: { statistic: num(chi), dof: 4, pAsymptotic: num(chiSquareUpper(chi, 4)), pValue: tests.find((r) => r.key === 'sidesChiSquare')!.pValue },
+      lemaitre: { value: num(ss?.lemaitre), expected: LEMAITRE_CONSTANT.value, applies: !!ss && ss.p6 > LEMAITRE_RANGE[0] && ss.p6 < LEMAITRE_RANGE[1] },
+    },
+    areas: {
+      cv: num(as?.cv),
+      variance: num(as?.variance),
+      gammaShape: num(as?.gammaShape),
+      ksDistance: num(obs.ksDistance),
+      ecdf: { y: Array.from(grid), observed: Array.from(ecdf), mean: ref ? list(ref.areaEcdf.mean) : none(grid.length), lo: ref ? list(ref.areaEcdf.lo) : none(grid.length), hi: ref ? list(ref.areaEcdf.hi) : none(grid.length) },
+      histogram: {
+        y0: Array.from(grid.subarray(0, grid.length - 1)), binWidth: AREA_GRID_STEP, observed: hist,
+        mean: ref ? list(ref.areaHistogram.mean) : none(hist.length), lo: ref ? list(ref.areaHistogram.lo) : none(hist.length), hi: ref ? list(ref.areaHistogram.hi) : none(hist.length),
+      },
+    },
+    clarkEvans: {
+      R: num(ce.Rcorrected), Runcorrected: num(ce.R), se: num(ce.se), z: num(ce.z), pNormal: layout === 'seeds' ? num(normalTwoSided(ce.z)) : null, points: ce.n,
+      referenceMean: num(ref?.mean.clarkEvansR), referenceSd: num(ref?.sd.clarkEvansR), pValue: tests.find((r) => r.key === 'clarkEvansR')!.pValue,
+    },
+    lFunction: {
+      rPx: Array.from(radii), observed: list(L),
+      mean: ref ? list(ref.lFunction.mean) : none(radii.length), lo: ref ? list(ref.lFunction.lo) : none(radii.length), hi: ref ? list(ref.lFunction.hi) : none(radii.length),
+      maxDeviation: num(obs.lMaxDeviation), pValue: tests.find((r) => r.key === 'lMaxDeviation')!.pValue,
+    },
+    lewis: {
+      n: lewis?.n ?? [], observed: lewis?.value ?? [], count: lewis?.count ?? [], fit: fitJson(lewis?.fit ?? { slope: NaN, intercept: NaN, r2: NaN }),
+      reference: { n: ref?.lewis.n ?? [], value: ref ? list(ref.lewis.value) : [], slopeMean: num(ref?.mean.lewisSlope), slopeSd: num(ref?.sd.lewisSlope) },
+    },
+    aboavWeaire: {
+      n: aw?.n ?? [], observed: aw?.value ?? [], count: aw?.count ?? [], fit: fitJson(aw?.fit ?? { slope: NaN, intercept: NaN, r2: NaN }), a: num(aw?.a),
+      reference: { n: ref?.aboav.n ?? [], value: ref ? list(ref.aboav.value) : [], aMean: num(ref?.mean.aboavA), aSd: num(ref?.sd.aboavA) },
+    },
+    largestGap: gap && Number.isFinite(gap.radius) ? { x: gap.x, y: gap.y, radius: gap.radius, cell: gap.cell } : null,
+    voronoiLikeness: likeness,
+    warnings,
+  };
+}
