@@ -41,29 +41,30 @@ export function normalTwoSided(z: number): number {
 }
 
 /**
- * Digamma ψ(x) for x > 0: recurrence up to x ≥ 6, then the asymptotic series
- * ψ(x) ≈ ln x − 1/(2x) − 1/(12x²) + 1/(120x⁴) − 1/(252x⁶) (Abramowitz & Stegun 1964, 6.3.18; pub, memory).
+ * Digamma ψ(x) for x > 0: recurrence up to x ≥ 10, then the asymptotic series
+ * ψ(x) ≈ ln x − 1/(2x) − 1/(12x²) + 1/(120x⁴) − 1/(252x⁶) + 1/(240x⁸) − 1/(132x¹⁰)
+ * (Abramowitz & Stegun 1964, 6.3.18; pub, memory).
  */
 export function digamma(x: number): number {
   let r = 0;
-  while (x < 6) {
+  while (x < 10) {
     r -= 1 / x;
     x += 1;
   }
   const f = 1 / (x * x);
-  return r + Math.log(x) - 0.5 / x - f * (1 / 12 - f * (1 / 120 - f / 252));
+  return r + Math.log(x) - 0.5 / x - f * (1 / 12 - f * (1 / 120 - f * (1 / 252 - f * (1 / 240 - f / 132))));
 }
 
 /**
- * Trigamma ψ'(x) for x > 0: recurrence, then ψ'(x) ≈ 1/x + 1/(2x²) + 1/(6x³) − 1/(30x⁵) + 1/(42x⁷)
- * (Abramowitz & Stegun 1964, 6.4.12; pub, memory).
+ * Trigamma ψ'(x) for x > 0: recurrence up to x ≥ 10, then
+ * ψ'(x) ≈ 1/x + 1/(2x²) + 1/(6x³) − 1/(30x⁵) + 1/(42x⁷) − 1/(30x⁹) (Abramowitz & Stegun 1964, 6.4.12; pub, memory).
  */
 export function trigamma(x: number): number {
   let r = 0;
-  while (x < 6) {
+  while (x < 10) {
     r += 1 / (x * x);
     x += 1;
   }
   const f = 1 / (x * x);
-  return r + 1 / x + f / 2 + (f / x) * (1 / 6 - f * (1 / 30 - f / 42));
+  return r + 1 / x + f / 2 + (f / x) * (1 / 6 - f * (1 / 30 - f * (1 / 42 - f / 30)));
 }

@@ -225,10 +225,10 @@ function build(points: Float64Array, field: Rect, keepPolygons: boolean): Tessel
     perimeter[i] = perimeter[i]! * inv;
     centroid[2 * i] = centroid[2 * i]! * inv + field.x0;
     centroid[2 * i + 1] = centroid[2 * i + 1]! * inv + field.y0;
-    bbox[4 * i] = bbox[4 * i]! * inv + field.x0;
-    bbox[4 * i + 1] = bbox[4 * i + 1]! * inv + field.y0;
-    bbox[4 * i + 2] = bbox[4 * i + 2]! * inv + field.x0;
-    bbox[4 * i + 3] = bbox[4 * i + 3]! * inv + field.y0;
+    bbox[4 * i] = Math.max(field.x0, bbox[4 * i]! * inv + field.x0);
+    bbox[4 * i + 1] = Math.max(field.y0, bbox[4 * i + 1]! * inv + field.y0);
+    bbox[4 * i + 2] = Math.min(field.x1, bbox[4 * i + 2]! * inv + field.x0);
+    bbox[4 * i + 3] = Math.min(field.y1, bbox[4 * i + 3]! * inv + field.y0);
   }
 
   const { neighbourOffsets, neighbourIndex } = neighbourGraph(sorted, perm, triangles, halfedges, cc, Wn, Hn, n);
@@ -258,8 +258,9 @@ function build(points: Float64Array, field: Rect, keepPolygons: boolean): Tessel
     let src = startSorted[rank[i]!]!;
     const end = 2 * polygonOffsets[i + 1]!;
     for (let dst = 2 * polygonOffsets[i]!; dst < end; dst += 2, src += 2) {
-      polygonCoords[dst] = data[src]! * inv + field.x0;
-      polygonCoords[dst + 1] = data[src + 1]! * inv + field.y0;
+      // Clamped so that vertices on the border sit exactly on it despite the rescaling.
+      polygonCoords[dst] = Math.min(field.x1, Math.max(field.x0, data[src]! * inv + field.x0));
+      polygonCoords[dst + 1] = Math.min(field.y1, Math.max(field.y0, data[src + 1]! * inv + field.y0));
     }
   }
   const tri = new Uint32Array(triangles.length);
