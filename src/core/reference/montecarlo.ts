@@ -105,10 +105,11 @@ export interface Reference {
 /**
  * Draws the random-seeding reference.
  *
- * Each replicate r draws `seedsPerReplicate` uniform seeds in the field (a Poisson process conditioned on
- * its count, which makes the Monte Carlo test exact given the observed number of cells) from the generator
- * seeded with subSeed(seed, r), tessellates them, keeps the cells the observation's edge rule and minimum
- * area keep, and records the statistics of stats/pattern.ts. The minimum area hides a fraction F of Poisson–
+ * Each replicate r draws `seedsPerReplicate` uniform seeds (a Poisson process conditioned on its count,
+ * which makes the Monte Carlo test exact given the observed number of cells) in the field, or for the
+ * 'window' layout in the field plus its guard band, from the generator seeded with subSeed(seed, r);
+ * tessellates them (for 'window': cuts the cells by the field border, see window.ts), keeps the cells the
+ * observation's edge rule and minimum area keep, and records the statistics of stats/pattern.ts. The minimum area hides a fraction F of Poisson–
  * Voronoi cells, F = P(Y < minArea·λ) with Y gamma(7/2, 7/2) (Ferenc & Néda 2007; pub, read in text), so
  * seeds = round(cells / (1 − F)) puts the visible cells at the observed density (approximately: hidden cells
  * also change their neighbours).

@@ -166,6 +166,7 @@ function build(points: Float64Array, field: Rect, keepPolygons: boolean): Tessel
 
   // Border cells are drawn by d3 into this context; reused for every cell.
   const scratch: number[] = [];
+  const spare: number[] = [];
   const ctx = {
     moveTo(x: number, y: number) { scratch.push(x, y); },
     lineTo(x: number, y: number) { scratch.push(x, y); },
@@ -201,7 +202,20 @@ function build(points: Float64Array, field: Rect, keepPolygons: boolean): Tessel
     }
     if (!interior) {
       scratch.length = 0;
-      voronoi.renderCell(k, ctx);
+      if (hullIndex[k] === -1) {
+        // A bounded cell that crosses the border: its own polygon clipped to the field (exact for convex
+        // cells, and much cheaper than the general clipping of unbounded cells).
+        const e0 = inedges[k]!;
+        let e = e0;
+        do {
+          const t = (e / 3) | 0;
+          scratch.push(cc[2 * t]!, cc[2 * t + 1]!);
+          e = halfedges[e % 3 === 2 ? e - 2 : e + 1]!;
+        } while (e !== e0);
+        clipToBox(scratch, spare, Wn, Hn);
+      } else {
+        voronoi.renderCell(k, ctx);
+      }
       const m = scratch.length;
       let px = scratch[m - 2]!;
       let py = scratch[m - 1]!;
@@ -356,6 +370,41 @@ function polygonMeasures(
   bbox[4 * i + 1] = miny;
   bbox[4 * i + 2] = maxx;
   bbox[4 * i + 3] = maxy;
+}
+
+/**
+ * Clips the convex polygon in `poly` (flat x, y) to [0, W] x [0, H] in place, by Sutherland–Hodgman
+ * (Sutherland & Hodgman 1974, Comm. ACM 17:32; pub, memory). Crossings get the bound as exact coordinate.
+ */
+function clipToBox(poly: number[], tmp: number[], W: number, H: number): void {
+  clipHalf(poly, tmp, 0, 0, 1);
+  clipHalf(tmp, poly, 0, W, -1);
+  clipHalf(poly, tmp, 1, 0, 1);
+  clipHalf(tmp, poly, 1, H, -1);
+}
+
+/** Keeps the part of src with sign·(coord[axis] − c) ≥ 0, into dst. */
+function clipHalf(src: number[], dst: number[], axis: 0 | 1, c: number, sign: 1 | -1): void {
+  dst.length = 0;
+  const m = src.length / 2;
+  if (m === 0) return;
+  let ax = src[2 * m - 2]!;
+  let ay = src[2 * m - 1]!;
+  let da = sign * ((axis === 0 ? ax : ay) - c);
+  for (let j = 0; j < m; j++) {
+    const bx = src[2 * j]!;
+    const by = src[2 * j + 1]!;
+    const db = sign * ((axis === 0 ? bx : by) - c);
+    if ((da >= 0) !== (db >= 0)) {
+      const t = da / (da - db);
+      if (axis === 0) dst.push(c, ay + t * (by - ay));
+      else dst.push(ax + t * (bx - ax), c);
+    }
+    if (db >= 0) dst.push(bx, by);
+    ax = bx;
+    ay = by;
+    da = db;
+  }
 }
 
 /**
