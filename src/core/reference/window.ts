@@ -16,11 +16,25 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
   const n = t.area.length;
   const map = new Int32Array(n).fill(-1);
   const kind = new Uint8Array(n); // 0 outside, 1 inside, 2 crossing
+  const clipped: (number[] | null)[] = new Array(n).fill(null);
   let m = 0;
   for (let i = 0; i < n; i++) {
     const x0 = t.bbox[4 * i]!, y0 = t.bbox[4 * i + 1]!, x1 = t.bbox[4 * i + 2]!, y1 = t.bbox[4 * i + 3]!;
     if (x1 <= field.x0 || x0 >= field.x1 || y1 <= field.y0 || y0 >= field.y1) continue;
-    kind[i] = x0 > field.x0 && x1 < field.x1 && y0 > field.y0 && y1 < field.y1 ? 1 : 2;
+    if (x0 > field.x0 && x1 < field.x1 && y0 > field.y0 && y1 < field.y1) {
+      kind[i] = 1;
+    } else {
+      let poly: number[] = [];
+      for (let v = t.polygonOffsets[i]!; v < t.polygonOffsets[i + 1]!; v++) poly.push(t.polygonCoords[2 * v]!, t.polygonCoords[2 * v + 1]!);
+      poly = clipAxis(poly, 0, field.x0, 1);
+      poly = clipAxis(poly, 0, field.x1, -1);
+      poly = clipAxis(poly, 1, field.y0, 1);
+      poly = clipAxis(poly, 1, field.y1, -1);
+      // A box can meet the field while the cell only grazes it (near a corner): no area, no cell.
+      if (poly.length < 6 || !(polygonArea(poly) > 0)) continue;
+      kind[i] = 2;
+      clipped[i] = poly;
+    }
     map[i] = m++;
   }
   const area = new Float64Array(m);
@@ -31,7 +45,6 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
   const bbox = new Float64Array(4 * m);
   const offsets = new Int32Array(m + 1);
   const nb: number[] = [];
-  let poly: number[] = [];
   for (let i = 0; i < n; i++) {
     const k = map[i]!;
     if (k < 0) continue;
@@ -50,13 +63,7 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
       continue;
     }
     edge[k] = 1;
-    poly = [];
-    for (let v = t.polygonOffsets[i]!; v < t.polygonOffsets[i + 1]!; v++) poly.push(t.polygonCoords[2 * v]!, t.polygonCoords[2 * v + 1]!);
-    poly = clipAxis(poly, 0, field.x0, 1);
-    poly = clipAxis(poly, 0, field.x1, -1);
-    poly = clipAxis(poly, 1, field.y0, 1);
-    poly = clipAxis(poly, 1, field.y1, -1);
-    measure(poly, k, area, perimeter, sides, centroid, bbox);
+    measure(clipped[i]!, k, area, perimeter, sides, centroid, bbox);
   }
   return {
     points: centroid.slice(),
@@ -70,6 +77,16 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
     neighbourOffsets: offsets,
     neighbourIndex: Int32Array.from(nb),
   };
+}
+
+function polygonArea(p: number[]): number {
+  let a2 = 0;
+  const m = p.length / 2;
+  for (let a = 0; a < m; a++) {
+    const b = (a + 1) % m;
+    a2 += (p[2 * a]! - p[0]!) * (p[2 * b + 1]! - p[1]!) - (p[2 * b]! - p[0]!) * (p[2 * a + 1]! - p[1]!);
+  }
+  return Math.abs(a2) / 2;
 }
 
 /** Keeps the part of polygon p (flat x, y) with sign·(coord[axis] − c) ≥ 0. */

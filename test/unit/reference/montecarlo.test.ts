@@ -100,3 +100,23 @@ describe('Monte Carlo reference: bad input', () => {
     expect(r.warnings.join(' ')).toMatch(/too small|no interior cell/);
   });
 });
+
+describe('window cells', () => {
+  it('cells cut by the field tile it exactly; cells inside keep their values (derived)', async () => {
+    const { windowCells } = await import('../../../src/core/reference/window');
+    const { tessellate } = await import('../../../src/core/tessellate');
+    const { seedPoints } = await import('../../../src/core/synth/seeds');
+    const p = seedPoints(600, 300, 300, 'random', 3);
+    const all = tessellate(p, { x0: 0, y0: 0, x1: 300, y1: 300 });
+    const f = { x0: 50, y0: 40, x1: 250, y1: 230 };
+    const w = windowCells(all, f);
+    let a = 0;
+    for (let k = 0; k < w.area.length; k++) {
+      expect(w.area[k]).toBeGreaterThan(0);
+      a += w.area[k]!;
+      const cx = w.centroid[2 * k]!, cy = w.centroid[2 * k + 1]!;
+      expect(cx >= f.x0 && cx <= f.x1 && cy >= f.y0 && cy <= f.y1).toBe(true);
+    }
+    expect(a).toBeCloseTo(200 * 190, 6);
+  });
+});

@@ -4,6 +4,7 @@ import { tessellate } from '../../../src/core/tessellate';
 import { seedPoints } from '../../../src/core/synth/seeds';
 import { defaultSettings, type Settings } from '../../../src/core/settings';
 import { referenceMonteCarlo } from '../../../src/core/reference/montecarlo';
+import { windowCells as windowCellsFor } from '../../../src/core/reference/window';
 
 function settings(replicates: number, seed: number): Settings {
   const s = defaultSettings();
@@ -125,5 +126,35 @@ describe('randomness: bad input', () => {
     const r = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(19, 1) });
     expect(r.warnings.join(' ')).toMatch(/reference could not be drawn: .*interior cell/);
     expect(r.largestGap).not.toBeNull();
+  });
+});
+
+describe('walls patterns: the window layout', () => {
+  function wallsLike(seed: number, order: 'random' | 'regular' = 'random') {
+    // A "segmentation" that is exactly the Voronoi tessellation of the seeds seen through the field; its
+    // cells' centroids are what a walls analysis tessellates.
+    const W = 300, H = 300;
+    const f = { x0: 0, y0: 0, x1: W, y1: H };
+    const big = seedPoints(Math.round(300 * (360 * 360) / (W * H)), 360, 360, order, seed);
+    const inside: number[] = [];
+    for (let i = 0; i < big.length / 2; i++) inside.push(big[2 * i]! - 30, big[2 * i + 1]! - 30);
+    const all = tessellate(Float64Array.from(inside), { x0: -30, y0: -30, x1: 330, y1: 330 });
+    const cut = windowCellsFor(all, f);
+    const t = tessellate(cut.centroid, f);
+    const s = settings(39, seed);
+    s.pattern = 'walls';
+    return randomness({ tessellation: t, sides: cut.sides, area: cut.area, edge: cut.edge, bbox: cut.bbox, settings: s, neighbours: { offsets: cut.neighbourOffsets, index: cut.neighbourIndex } });
+  }
+  it('a window on a random-seeding tessellation is "consistent with random seeding" in at least 8 of 10 seeds', () => {
+    let ok = 0;
+    for (let k = 0; k < 10; k++) {
+      const r = wallsLike(400 + k);
+      expect((r.reference as { layout: string }).layout).toBe('window');
+      if (r.verdict === 'consistent with random seeding') ok++;
+    }
+    expect(ok).toBeGreaterThanOrEqual(8);
+  });
+  it('a window on a hard-core tessellation is "more regular than random"', () => {
+    expect(wallsLike(7, 'regular').verdict).toBe('more regular than random');
   });
 });
