@@ -2,6 +2,7 @@ import type { Columns, LabelImage, Rect } from './types';
 import type { Settings } from './settings';
 import type { Tessellation } from './tessellate/types';
 import type { GrainSizeResult } from './grain/types';
+import type { RandomnessResult } from './stats/randomness';
 
 /** A JSON-serialisable summary: the keys other tools read are documented in README (summary.json). */
 export type Summary = Record<string, unknown>;
@@ -21,4 +22,6 @@ export interface Analysis {
   summary: Summary;
   /** ASTM E112 rating with its audit marks (walls pattern with a pixel size), in field coordinates. */
   grain?: GrainSizeResult | null;
+  /** Observed versus random seeding: tests, verdict and plot data (px units). */
+  randomness?: RandomnessResult | null;
 }

@@ -3,12 +3,14 @@
  * bytes -> raster (caller) -> labels -> cells (columns) -> tessellation -> comparison -> summary.
  * Each stage is one function; progress is reported through a callback; an AbortSignal cancels between stages.
  */
-import type { Analysis } from './analysis.types';
 import { cellOutlines, type Polygons } from './cv/contours';
 import { loadCv } from './cv/index';
 import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TessellabError, TooFewCellsError } from './errors';
 import { grainSize, grainSizeSummary } from './grain/index';
 import type { GrainSizeResult } from './grain/types';
+import { assignEvents } from './stats/events';
+import { randomness, type RandomnessResult } from './stats/randomness';
+import type { Analysis, Summary } from './analysis.types';
 import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
 import { cellSums, type CellSums } from './measure/kernel';
 import { measureColumns, type MeasureContext } from './measure/registry';
@@ -161,7 +163,7 @@ function measureLabels(
   progress('tessellate', 1);
   const neighbours = new Int32Array(n);
   for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
-  const events = opts.events ? countEvents(opts.events, labels, field, tess) : undefined;
+  const events = opts.events ? assignEvents(opts.events, labelsInImage(labels, field), tess) : undefined;
   const ctx: MeasureContext = {
     count: n,
     umPerPx: settings.umPerPx,
@@ -182,6 +184,18 @@ function measureLabels(
   progress('statistics', 0);
   const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
   const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
+  const rnd = randomness({
+    tessellation: tess,
+    sides,
+    area: sums.n,
+    edge: sums.edge,
+    bbox: bboxOf(sums, field),
+    labels: labelsInImage(labels, field),
+    settings,
+    neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
+    minCellAreaPx: segment?.minCellAreaPx,
+  });
+  addRandomness(summary, rnd, settings.umPerPx);
   progress('statistics', 1);
   let grain: GrainSizeResult | null = null;
   if (settings.pattern === 'walls') {
@@ -190,7 +204,7 @@ function measureLabels(
     grain = g.result;
     summary.grainSize = g.summary;
   }
-  return { width, height, field, settings, labels, columns, tessellation: tess, summary, grain };
+  return { width, height, field, settings, labels, columns, tessellation: tess, summary, grain, randomness: rnd };
 }
 
 /**
@@ -207,44 +221,56 @@ function rateGrainSize(labels: LabelImage, field: Rect, settings: Settings): { r
   }
 }
 
-function bboxOf(s: CellSums): Float64Array {
+/** Bounding boxes of the cells' pixel squares, x0, y0, x1, y1 per cell, in image px. */
+function bboxOf(s: CellSums, field: Rect = { x0: 0, y0: 0, x1: 0, y1: 0 }): Float64Array {
   const b = new Float64Array(4 * s.count);
   for (let c = 0; c < s.count; c++) {
-    b[4 * c] = s.xmin[c]!;
-    b[4 * c + 1] = s.ymin[c]!;
-    b[4 * c + 2] = s.xmax[c]! + 1;
-    b[4 * c + 3] = s.ymax[c]! + 1;
+    b[4 * c] = s.xmin[c]! + field.x0;
+    b[4 * c + 1] = s.ymin[c]! + field.y0;
+    b[4 * c + 2] = s.xmax[c]! + 1 + field.x0;
+    b[4 * c + 3] = s.ymax[c]! + 1 + field.y0;
   }
   return b;
 }
 
-/** Events per cell: the cell whose pixel holds the event, or the nearest centroid's cell outside cells. */
-function countEvents(events: Float64Array, labels: LabelImage | null, field: Rect, tess: Tessellation): Int32Array {
-  const n = tess.area.length;
-  const out = new Int32Array(n);
-  for (let i = 0; i < events.length / 2; i++) {
-    const ex = events[2 * i]!;
-    const ey = events[2 * i + 1]!;
-    if (ex < field.x0 || ey < field.y0 || ex >= field.x1 || ey >= field.y1) continue;
-    let cell = -1;
-    if (labels) {
-      const l = labels.labels[Math.floor(ey - field.y0) * labels.width + Math.floor(ex - field.x0)]!;
-      if (l > 0) cell = l - 1;
-    }
-    if (cell < 0) cell = nearest(tess.points, ex, ey);
-    out[cell]!++;
-  }
-  return out;
+/**
+ * The statistics read label images in image coordinates; ours cover the field only. When the field is
+ * the whole image they are the same; otherwise a zero-padded copy (rare: a drawn field).
+ */
+function labelsInImage(labels: LabelImage, field: Rect): LabelImage {
+  if (field.x0 === 0 && field.y0 === 0) return labels;
+  const w = field.x1;
+  const h = field.y1;
+  const out = new Int32Array(w * h);
+  for (let y = 0; y < labels.height; y++) out.set(labels.labels.subarray(y * labels.width, (y + 1) * labels.width), (y + field.y0) * w + field.x0);
+  return { width: w, height: h, labels: out, count: labels.count };
 }
 
-function nearest(p: Float64Array, x: number, y: number): number {
-  let best = 0;
-  let bd = Infinity;
-  for (let i = 0; i < p.length / 2; i++) {
-    const d = (p[2 * i]! - x) ** 2 + (p[2 * i + 1]! - y) ** 2;
-    if (d < bd) (bd = d), (best = i);
-  }
-  return best;
+/** The randomness figures in the summary, lengths in the summary's unit (µm when calibrated). */
+function addRandomness(summary: Summary, r: RandomnessResult, umPerPx: number | null): void {
+  const u = umPerPx ?? 1;
+  const ref = r.reference as { replicates?: number; seed?: number } | null;
+  summary.randomness = {
+    verdict: r.verdict,
+    verdictText: r.verdictText,
+    alpha: r.alpha,
+    basis: r.basis,
+    tests: r.tests,
+    reference: ref ? { R: ref.replicates ?? null, seed: ref.seed ?? null, ...ref } : null,
+    warnings: r.warnings,
+  };
+  const sides = summary.sides as Record<string, unknown>;
+  const refP: Record<string, number | null> = {};
+  r.sides.n.forEach((k, i) => (refP[k] = r.sides.reference[i] ?? null));
+  sides.reference = refP;
+  sides.chiSquare = r.sides.chiSquare;
+  sides.lemaitre = r.sides.lemaitre;
+  summary.clarkEvans = r.clarkEvans;
+  summary.largestGap = r.largestGap ? { x: r.largestGap.x * u, y: r.largestGap.y * u, radius: r.largestGap.radius * u, cell: r.largestGap.cell } : null;
+  summary.lewis = { fit: r.lewis.fit, referenceSlopeMean: r.lewis.reference.slopeMean };
+  summary.aboavWeaire = { a: r.aboavWeaire.a, fit: r.aboavWeaire.fit, referenceAMean: r.aboavWeaire.reference.aMean };
+  summary.areaDistribution = { cv: r.areas.cv, variance: r.areas.variance, gammaShape: r.areas.gammaShape, ksDistance: r.areas.ksDistance };
+  summary.voronoiLikeness = r.voronoiLikeness;
 }
 
 function analyzePoints(points: Float64Array, width: number, height: number, settings: Settings, opts: AnalyzeOptions): Analysis {
@@ -266,7 +292,7 @@ function analyzePoints(points: Float64Array, width: number, height: number, sett
   for (let i = 0; i < n; i++) (x[i] = pts[2 * i]!), (y[i] = pts[2 * i + 1]!);
   const neighbours = new Int32Array(n);
   for (let i = 0; i < n; i++) neighbours[i] = tess.neighbourOffsets[i + 1]! - tess.neighbourOffsets[i]!;
-  const events = opts.events ? countEvents(opts.events, null, field, tess) : undefined;
+  const events = opts.events ? assignEvents(opts.events, null, tess) : undefined;
   const ctx: MeasureContext = {
     count: n,
     umPerPx: settings.umPerPx,
@@ -284,8 +310,10 @@ function analyzePoints(points: Float64Array, width: number, height: number, sett
   const columns = measureColumns(ctx, 'points');
   progress('statistics', 0);
   const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
+  const rnd = randomness({ tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
+  addRandomness(summary, rnd, settings.umPerPx);
   progress('statistics', 1);
-  return { width, height, field, settings, labels: null, columns, tessellation: tess, summary };
+  return { width, height, field, settings, labels: null, columns, tessellation: tess, summary, randomness: rnd };
 }
 
 /** The segmented cells' outlines (image px), or null for a points pattern. Loads opencv.js if needed. */
