@@ -147,3 +147,37 @@ export function parseEventsCsv(text: string, name = 'events file'): Float64Array
   if (parsed.count === 0) throw new CsvError(`${name}: no events found; it needs one x,y pair per line.`);
   return parsed.points;
 }
+
+/** Everything the events option adds: per-cell counts and density, and the dispersion test. */
+export interface EventsAnalysis {
+  counts: Int32Array;
+  /** Events per px² of each cell (per the unit of `area`). */
+  density: Float64Array;
+  dispersion: EventsDispersion | null;
+  outside: number;
+  nearest: number;
+  warnings: string[];
+}
+
+/**
+ * Assigns events to cells ({@link assignEventsDetailed}), computes the per-cell density with `area`
+ * (the observed cell areas: segmented for walls and bodies, Voronoi for points) and tests the counts
+ * against Poisson counts ({@link eventsDispersion}). A test that cannot be made leaves `dispersion` null
+ * with the reason in `warnings`; the counts are kept.
+ */
+export function analyseEvents(events: Float64Array, labels: LabelImage | null, tessellation: Tessellation, area: Float64Array): EventsAnalysis {
+  const a = assignEventsDetailed(events, labels, tessellation);
+  const warnings: string[] = [];
+  if (a.outside) warnings.push(`${a.outside} of ${events.length / 2} events lie outside the field and were not counted.`);
+  let dispersion: EventsDispersion | null = null;
+  try {
+    dispersion = eventsDispersion(a.counts, area);
+    if (dispersion.events === 0) warnings.push('No event falls in the field; the events test needs at least one.');
+    else if (dispersion.smallExpected > dispersion.cells / 2) {
+      warnings.push(`Most cells expect fewer than 1 event (${dispersion.smallExpected} of ${dispersion.cells}); the chi-square p-value of the events test is rough.`);
+    }
+  } catch (e) {
+    warnings.push(e instanceof Error ? e.message : String(e));
+  }
+  return { counts: a.counts, density: eventsDensity(a.counts, area), dispersion, outside: a.outside, nearest: a.nearest, warnings };
+}

@@ -1,8 +1,8 @@
 /** Statistics of cell patterns against random seeding: the public entry points. */
 export { randomness, monteCarloP, combinedMaxZ, MIN_INTERIOR_CELLS } from './randomness';
 export type { RandomnessInput, RandomnessResult, TestRow, Verdict } from './randomness';
-export { assignEvents, assignEventsDetailed, eventsDensity, eventsDispersion, parseEventsCsv } from './events';
-export type { EventAssignment, EventsDispersion } from './events';
+export { assignEvents, assignEventsDetailed, eventsDensity, eventsDispersion, parseEventsCsv, analyseEvents } from './events';
+export type { EventAssignment, EventsDispersion, EventsAnalysis } from './events';
 export { largestGap } from './gap';
 export type { LargestGap } from './gap';
 export { voronoiLikeness } from './likeness';

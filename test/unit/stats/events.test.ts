@@ -70,3 +70,20 @@ describe('dispersion of events over cells (index of dispersion, chi-square; Coch
     expect(() => parseEventsCsv('x,y\n1,2\n3,abc\n', 'spots.csv')).toThrow(/spots\.csv: line 3/);
   });
 });
+
+describe('analyseEvents', () => {
+  it('counts, density and test together; events off the field are reported, not lost silently', async () => {
+    const { analyseEvents } = await import('../../../src/core/stats/events');
+    const t = tessellate(seedPoints(50, 100, 100, 'random', 3), { x0: 0, y0: 0, x1: 100, y1: 100 });
+    const rng = mulberry32(9);
+    const ev: number[] = [];
+    for (let i = 0; i < 400; i++) ev.push(rng() * 100, rng() * 100);
+    ev.push(150, 50);
+    const r = analyseEvents(Float64Array.from(ev), null, t, t.area);
+    expect(r.counts.reduce((a, b) => a + b, 0)).toBe(400);
+    expect(r.outside).toBe(1);
+    expect(r.warnings.join(' ')).toMatch(/1 of 401 events lie outside the field/);
+    expect(r.dispersion!.events).toBe(400);
+    expect(r.density[0]).toBeCloseTo(r.counts[0]! / t.area[0]!, 12);
+  });
+});
