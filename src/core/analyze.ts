@@ -8,7 +8,7 @@ import { loadCv } from './cv/index';
 import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TessellabError, TooFewCellsError } from './errors';
 import { grainSize, grainSizeSummary } from './grain/index';
 import type { GrainSizeResult } from './grain/types';
-import { assignEvents } from './stats/events';
+import { assignEvents, eventsDispersion } from './stats/events';
 import { randomness, type RandomnessResult } from './stats/randomness';
 import type { Analysis, Summary } from './analysis.types';
 import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
@@ -196,6 +196,7 @@ function measureLabels(
     minCellAreaPx: segment?.minCellAreaPx,
   });
   addRandomness(summary, rnd, settings.umPerPx);
+  if (events) summary.events = eventsSummary(events, sums.n, sums.edge);
   progress('statistics', 1);
   let grain: GrainSizeResult | null = null;
   if (settings.pattern === 'walls') {
@@ -244,6 +245,21 @@ function labelsInImage(labels: LabelImage, field: Rect): LabelImage {
   const out = new Int32Array(w * h);
   for (let y = 0; y < labels.height; y++) out.set(labels.labels.subarray(y * labels.width, (y + 1) * labels.width), (y + field.y0) * w + field.x0);
   return { width: w, height: h, labels: out, count: labels.count };
+}
+
+/** Events per cell against Poisson counts proportional to area, over interior cells. */
+function eventsSummary(counts: Int32Array, area: Float64Array, edge: Uint8Array): Record<string, unknown> {
+  const keep: number[] = [];
+  for (let i = 0; i < counts.length; i++) if (!edge[i]) keep.push(i);
+  let total = 0;
+  for (const c of counts) total += c;
+  try {
+    const d = eventsDispersion(Int32Array.from(keep, (i) => counts[i]!), Float64Array.from(keep, (i) => area[i]!));
+    return { total, ...d };
+  } catch (e) {
+    if (e instanceof TessellabError) return { total, error: e.message };
+    throw e;
+  }
 }
 
 /** The randomness figures in the summary, lengths in the summary's unit (µm when calibrated). */
@@ -312,6 +328,7 @@ function analyzePoints(points: Float64Array, width: number, height: number, sett
   const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
   const rnd = randomness({ tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
   addRandomness(summary, rnd, settings.umPerPx);
+  if (events) summary.events = eventsSummary(events, tess.area, tess.edge);
   progress('statistics', 1);
   return { width, height, field, settings, labels: null, columns, tessellation: tess, summary, randomness: rnd };
 }
