@@ -5,6 +5,7 @@
  */
 import * as Comlink from 'comlink';
 import { zipSync } from 'fflate';
+import { THUMB_SIDE } from './protocol';
 import type {
   AnalysisResult, AnalyzeRequest, ExportFile, ExportKind, OpenResult, Overlay, PreviewResult, ProgressFn, WorkerApi,
 } from './protocol';
@@ -72,10 +73,18 @@ async function bitmapOf(rgba: Uint8ClampedArray, width: number, height: number):
   return createImageBitmap(new ImageData(rgba as Uint8ClampedArray<ArrayBuffer>, width, height));
 }
 
+/** A reduced copy of a bitmap for the zoomed-out Bench, or null when it is small already. */
+async function thumbOf(b: ImageBitmap, quality: ResizeQuality): Promise<ImageBitmap | null> {
+  const k = THUMB_SIDE / Math.max(b.width, b.height);
+  if (k >= 1) return null;
+  return createImageBitmap(b, { resizeWidth: Math.max(1, Math.round(b.width * k)), resizeHeight: Math.max(1, Math.round(b.height * k)), resizeQuality: quality });
+}
+
 async function makeOverlay(a: Analysis): Promise<Overlay> {
-  if (!a.labels) return { outlines: null, cellBoxes: new Int32Array(0) };
+  if (!a.labels) return { outlines: null, outlinesThumb: null, cellBoxes: new Int32Array(0) };
   const rgba = outlineRgba(a.labels);
-  return { outlines: await bitmapOf(rgba, a.labels.width, a.labels.height), cellBoxes: cellBoxes(a.labels) };
+  const outlines = await bitmapOf(rgba, a.labels.width, a.labels.height);
+  return { outlines, outlinesThumb: await thumbOf(outlines, 'medium'), cellBoxes: cellBoxes(a.labels) };
 }
 
 async function sendResult(id: string, a: Analysis, t0: number): Promise<AnalysisResult> {
@@ -86,6 +95,7 @@ async function sendResult(id: string, a: Analysis, t0: number): Promise<Analysis
   const transfers: Transferable[] = collectTransfers(copy);
   transfers.push(overlay.cellBoxes.buffer as ArrayBuffer);
   if (overlay.outlines) transfers.push(overlay.outlines);
+  if (overlay.outlinesThumb) transfers.push(overlay.outlinesThumb);
   return Comlink.transfer(result, transfers);
 }
 
@@ -137,14 +147,15 @@ const api: WorkerApi = {
       o = { name, kind: 'image', image: page, points: null, width: page.width, height: page.height, umPerPxFromFile: d.umPerPx };
       opened.set(id, o);
       const bitmap = await bitmapOf(displayRgba(page), page.width, page.height);
+      const thumb = await thumbOf(bitmap, 'high');
       const r: OpenResult = {
         id, kind: 'image', width: page.width, height: page.height, umPerPxFromFile: d.umPerPx, pages: d.pages.length,
-        wasColour: d.wasColour, bitDepth: page.bitDepth, bitmap,
+        wasColour: d.wasColour, bitDepth: page.bitDepth, bitmap, thumb,
       };
-      return Comlink.transfer(r, [bitmap]);
+      return Comlink.transfer(r, thumb ? [bitmap, thumb] : [bitmap]);
     }
     opened.set(id, o);
-    return { id, kind: 'points', width: o.width, height: o.height, umPerPxFromFile: null, pages: 0, wasColour: false, bitDepth: 8, bitmap: null };
+    return { id, kind: 'points', width: o.width, height: o.height, umPerPxFromFile: null, pages: 0, wasColour: false, bitDepth: 8, bitmap: null, thumb: null };
   },
 
   async analyze(req: AnalyzeRequest, onProgress?: ProgressFn) {

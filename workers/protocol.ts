@@ -28,12 +28,19 @@ export interface OpenResult {
   bitDepth: 8 | 16;
   /** The (8-bit, contrast-stretched) image for the Bench; null for a points pattern. */
   bitmap: ImageBitmap | null;
+  /** The same, at most THUMB_SIDE px on its long side, drawn when the Bench is zoomed out (null when the image is small). */
+  thumb: ImageBitmap | null;
 }
+
+/** Long side (px) of the reduced copies the Bench draws when zoomed out, so that a frame stays cheap. */
+export const THUMB_SIDE = 2048;
 
 /** Helpers for drawing an analysis, made in the worker so the page does no per-pixel work. */
 export interface Overlay {
   /** Cell outlines as an RGBA bitmap of the label image's size (transparent elsewhere); null for points. */
   outlines: ImageBitmap | null;
+  /** Outlines reduced to at most THUMB_SIDE px (null when the labels are small). */
+  outlinesThumb: ImageBitmap | null;
   /** Bounding box of each cell in the label image, 4 per cell: x0, y0, x1, y1 (px, exclusive end). */
   cellBoxes: Int32Array;
 }

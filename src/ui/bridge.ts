@@ -115,6 +115,7 @@ export class Bridge {
     if (!rec) throw new Error('This image was never opened; add it again.');
     const r = await this.call((api) => api.open(id, rec.name, null, rec.maxPixels));
     r.bitmap?.close();
+    r.thumb?.close();
     this.openIn.add(id);
   }
 

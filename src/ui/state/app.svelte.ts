@@ -63,6 +63,7 @@ export class Entry {
   ops = $state.raw<EditOp[]>([]);
   redo = $state.raw<EditOp[]>([]);
   bitmap = $state.raw<ImageBitmap | null>(null);
+  thumb = $state.raw<ImageBitmap | null>(null);
   result = $state.raw<AnalysisResult | null>(null);
   preview = $state.raw<PreviewResult | null>(null);
   /** Grain size of `result` (computed when the Grain size panel asks), or its error. */
@@ -391,7 +392,7 @@ export class AppState {
         e.width = r.width;
         e.height = r.height;
         e.umPerPxFromFile = r.umPerPxFromFile;
-        if (r.bitmap) { e.bitmap?.close(); e.bitmap = r.bitmap; } else if (first) e.bitmap = null;
+        if (r.bitmap) { e.bitmap?.close(); e.bitmap = r.bitmap; e.thumb?.close(); e.thumb = r.thumb; } else if (first) e.bitmap = null;
         if (r.kind === 'points') e.settings.pattern = 'points';
         e.error = null;
       }
@@ -438,6 +439,7 @@ export class AppState {
 
   private accept(e: Entry, r: AnalysisResult): void {
     e.result?.overlay.outlines?.close();
+    e.result?.overlay.outlinesThumb?.close();
     e.result = r;
     e.status = 'done';
     e.error = null;
