@@ -308,6 +308,10 @@ describe('Tessellab web app', () => {
     await expect.poll(() => page.getByTestId('verdict').textContent()).toMatch(/more regular than random|consistent with random seeding|more irregular than random/);
     expect(await page.getByTestId('tests').textContent()).toMatch(/Clark–Evans/);
     await shot('09-reloaded-randomness');
+    await page.getByTestId('plot-area').scrollIntoViewIfNeeded();
+    await shot('09b-randomness-plots');
+    await page.getByTestId('plot-pair').scrollIntoViewIfNeeded();
+    await shot('09c-randomness-pair');
   });
 
   it('a sample with a pixel size in its tags is calibrated from them and gets a grain size number', async () => {
