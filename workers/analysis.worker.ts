@@ -135,10 +135,11 @@ const api: WorkerApi = {
     if (isPointsFile(name, data)) {
       const { parsePointsCsv } = await import('../src/core/segment/points');
       const p = parsePointsCsv(new TextDecoder().decode(data), { name });
-      // The field of a point set is the box from the origin to the farthest point, rounded up to whole px.
+      // The field of a point set is the box from the origin to the farthest point, rounded up to whole px,
+      // as `tessellab analyze --pattern points` takes it without --size.
       let mx = 0, my = 0;
       for (let i = 0; i < p.points.length; i += 2) { mx = Math.max(mx, p.points[i]); my = Math.max(my, p.points[i + 1]); }
-      const width = Math.max(16, Math.ceil(mx) + 1), height = Math.max(16, Math.ceil(my) + 1);
+      const width = Math.max(1, Math.ceil(mx)), height = Math.max(1, Math.ceil(my));
       o = { name, kind: 'points', image: null, points: p.points, width, height, umPerPxFromFile: null };
     } else {
       const { decodeImage } = await import('../src/core/image/decode');

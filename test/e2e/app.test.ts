@@ -13,7 +13,7 @@ import { unzipSync, strFromU8 } from 'fflate';
 import type { BrowserContext, Page } from 'playwright-core';
 import type { PreviewServer } from 'vite';
 import { ROOT, SCREENSHOTS, launch, serveApp } from './harness';
-import { corruptPng, wallsPng, type Fixture } from './fixtures';
+import { corruptPng, pointsCsv, wallsPng, type Fixture } from './fixtures';
 
 let server: PreviewServer;
 let url = '';
@@ -248,6 +248,25 @@ describe('Tessellab web app', () => {
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
     await expect.poll(() => page.locator('[role=row][aria-selected=true]').count()).toBe(1);
     await shot('05-selected');
+  });
+
+  it('a points CSV is analysed as a points pattern with the command line\'s count and table', async () => {
+    const pts = pointsCsv(300, 500, 400, 9, work);
+    const out = join(work, 'cli-points');
+    execFileSync(process.execPath, [join(ROOT, 'bin/tessellab.mjs'), 'analyze', pts.path, '--pattern', 'points', '--out', out], { cwd: ROOT, stdio: 'pipe' });
+    await page.getByTestId('file-input').setInputFiles(pts.path);
+    const s = await settled(pts.name);
+    expect(s.status).toBe('done');
+    const cli = JSON.parse(readFileSync(join(out, pts.name.replace('.csv', '.summary.json')), 'utf8')) as { cells: { count: number } };
+    expect(s.count).toBe(300);
+    expect(s.count).toBe(cli.cells.count);
+    await selectEntry(pts.name);
+    await page.getByRole('tab', { name: 'Export' }).click();
+    const d = await download('export-cells.csv');
+    expect(d.bytes.equals(readFileSync(join(out, pts.name.replace('.csv', '.cells.csv'))))).toBe(true);
+    await shot('05b-points');
+    await page.getByTestId('entry').filter({ hasText: pts.name }).getByRole('button', { name: /Remove/ }).click();
+    await selectEntry(fixture.name);
   });
 
   it('a corrupt file shows its message beside it and leaves the rest working', async () => {
