@@ -7,10 +7,9 @@
 import { SettingsError, TooFewCellsError } from '../errors';
 import { mulberry32, subSeed } from '../random';
 import type { EdgeRule } from '../settings';
-import { tessellate, tessellateCells } from '../tessellate';
+import { Tessellator, type Tessellation } from '../tessellate';
 import { windowCells } from './window';
 import type { Rect } from '../types';
-import { uniformPoints } from '../synth/seeds';
 import { gammaCdf } from '../stats/dist';
 import {
   AreaCdfTable, MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats,
@@ -174,14 +173,17 @@ export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
   let interiorTotal = 0;
   const sqrtLambda = Math.sqrt(seeds / (RW * RH));
 
+  // One engine and one seed array for all replicates: same seed count, so nothing is reallocated.
+  const engine = new Tessellator(true);
+  const pts = new Float64Array(2 * seeds);
   for (let r = 0; r < R; r++) {
     const rng = mulberry32(subSeed(seed, r));
-    const pts = uniformPoints(rng, seeds, RW, RH);
+    // Uniform seeds in the region, drawn x then y as synth/seeds uniformPoints draws them.
     for (let i = 0; i < seeds; i++) {
-      pts[2 * i] = pts[2 * i]! + region.x0;
-      pts[2 * i + 1] = pts[2 * i + 1]! + region.y0;
+      pts[2 * i] = rng() * RW + region.x0;
+      pts[2 * i + 1] = rng() * RH + region.y0;
     }
-    const t = layout === 'window' ? windowCells(tessellate(pts, region), field) : tessellateCells(pts, field);
+    const t = layout === 'window' ? windowCells(engine.run(pts, region, 'polygons') as Tessellation, field) : engine.run(pts, field, 'cells');
     const sample = cellSample(t.area, t.edge, t.bbox, field, edgeRule, minArea);
     const m = sample.index.length;
     values.interiorCells[r] = m;

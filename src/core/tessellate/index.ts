@@ -89,7 +89,7 @@ export function validatePoints(points: Float64Array, field: Rect): void {
  *   outside points; SettingsError an empty field
  */
 export function tessellate(points: Float64Array, field: Rect): Tessellation {
-  return build(points, field, true) as Tessellation;
+  return new Tessellator(false).run(points, field, 'polygons') as Tessellation;
 }
 
 /** The per-cell part of a {@link Tessellation}, without polygons and triangles. */
@@ -100,186 +100,336 @@ export type CellTessellation = Omit<Tessellation, 'polygonOffsets' | 'polygonCoo
  * draws hundreds of times. Same validation, same errors, same per-cell values.
  */
 export function tessellateCells(points: Float64Array, field: Rect): CellTessellation {
-  return build(points, field, false);
+  return new Tessellator(false).run(points, field, 'cells');
 }
 
-function build(points: Float64Array, field: Rect, keepPolygons: boolean): Tessellation | CellTessellation {
-  validatePoints(points, field);
-  const n = points.length / 2;
-  const W = field.x1 - field.x0;
-  const H = field.y1 - field.y0;
-  const s = Math.sqrt(n / (W * H));
-  const inv = 1 / s;
-  const Wn = W * s;
-  const Hn = H * s;
-  const coords = new Float64Array(2 * n);
-  for (let i = 0; i < n; i++) {
-    coords[2 * i] = (points[2 * i]! - field.x0) * s;
-    coords[2 * i + 1] = (points[2 * i + 1]! - field.y0) * s;
+/**
+ * What {@link Tessellator.run} returns: 'polygons' a full {@link Tessellation}; 'cells' the per-cell values
+ * only; 'retained' the per-cell values with the cell polygons kept inside the tessellator, read back with
+ * {@link Tessellator.cellPolygon} until the next run.
+ */
+export type TessellatorOutput = 'polygons' | 'cells' | 'retained';
+
+/**
+ * A reusable tessellation engine: the work of {@link tessellate} with its triangulation and typed arrays
+ * allocated once and refilled on every run of the same number of points (what a Monte Carlo loop needs).
+ * The values are those of {@link tessellate} bit for bit, whatever the output chosen.
+ *
+ * With `reuse` true the arrays of a result (and its `points`, which is the caller's array) belong to the
+ * engine and are overwritten by the next run; with `reuse` false every run returns fresh arrays.
+ */
+export class Tessellator {
+  private readonly reuse: boolean;
+  private n = -1;
+  private delaunay: Delaunay<Float64Array> | null = null;
+  private voronoi: ReturnType<Delaunay<Float64Array>['voronoi']> | null = null;
+  private sorted: Float64Array = new Float64Array(0);
+  private coords: Float64Array = new Float64Array(0);
+  private identityPerm: Int32Array = new Int32Array(0);
+  private buf = new Buffer64(256);
+  private startSorted: Int32Array = new Int32Array(0);
+  private keep: Uint8Array = new Uint8Array(0);
+  private arrays: {
+    area: Float64Array; perimeter: Float64Array; sides: Int32Array; edge: Uint8Array; bbox: Float64Array; centroid: Float64Array;
+    degree: Int32Array; fill: Int32Array; neighbours: Int32Array;
+  } | null = null;
+  // Normalisation of the last run, for cellPolygon.
+  private lastInv = 1;
+  private lastField: Rect = { x0: 0, y0: 0, x1: 1, y1: 1 };
+  private lastRank: Int32Array | null = null;
+  private lastSides: Int32Array = new Int32Array(0);
+
+  constructor(reuse = true) {
+    this.reuse = reuse;
   }
 
-  // Large sets are processed in Hilbert order: neighbouring cells then sit close in memory, which saves
-  // about half the time for a million random points (the walk around a cell reads scattered triangles
-  // otherwise). Small sets fit in the cache as they are.
-  const reorder = n >= HILBERT_MIN_POINTS;
-  const perm = reorder ? hilbertOrder(coords, n, Math.max(Wn, Hn)) : identity(n);
-  let sorted = coords;
-  if (reorder) {
-    sorted = new Float64Array(2 * n);
+  /**
+   * Tessellates `points` in `field`; see {@link tessellate} for the method, parameters and errors.
+   * @param output which result to build (see {@link TessellatorOutput})
+   */
+  run(points: Float64Array, field: Rect, output: TessellatorOutput): Tessellation | CellTessellation {
+    try {
+      return this.build(points, field, output);
+    } catch (e) {
+      // A failed run can leave the triangulation jittered or half-updated: start afresh next time.
+      this.n = -1;
+      this.delaunay = null;
+      this.voronoi = null;
+      throw e;
+    }
+  }
+
+  /**
+   * Vertices of cell i of the last 'retained' run, in the caller's px coordinates (clamped to the field
+   * exactly as {@link tessellate}'s polygonCoords), appended to `out` as x, y pairs after clearing it.
+   */
+  cellPolygon(i: number, out: number[]): void {
+    out.length = 0;
+    const k = this.lastRank ? this.lastRank[i]! : i;
+    const f = this.lastField;
+    const inv = this.lastInv;
+    const data = this.buf.data;
+    let src = this.startSorted[k]!;
+    const end = src + 2 * this.lastSides[i]!;
+    for (; src < end; src += 2) {
+      out.push(Math.min(f.x1, Math.max(f.x0, data[src]! * inv + f.x0)), Math.min(f.y1, Math.max(f.y0, data[src + 1]! * inv + f.y0)));
+    }
+  }
+
+  private build(points: Float64Array, field: Rect, output: TessellatorOutput): Tessellation | CellTessellation {
+    validatePoints(points, field);
+    const keepPolygons = output !== 'cells';
+    const n = points.length / 2;
+    const W = field.x1 - field.x0;
+    const H = field.y1 - field.y0;
+    const s = Math.sqrt(n / (W * H));
+    const inv = 1 / s;
+    const Wn = W * s;
+    const Hn = H * s;
+    const fresh = !this.reuse || this.n !== n || !this.delaunay;
+    if (fresh) {
+      this.sorted = new Float64Array(2 * n);
+      this.startSorted = new Int32Array(n);
+      this.keep = new Uint8Array(6 * n);
+      this.delaunay = null;
+      this.voronoi = null;
+      this.arrays = null;
+    }
+
+    // Large sets are processed in Hilbert order: neighbouring cells then sit close in memory, which saves
+    // about half the time for a million random points (the walk around a cell reads scattered triangles
+    // otherwise). Small sets fit in the cache as they are.
+    const reorder = n >= HILBERT_MIN_POINTS;
+    const sorted = this.sorted;
+    let perm: Int32Array;
+    if (reorder) {
+      if (this.coords.length !== 2 * n) this.coords = new Float64Array(2 * n);
+      const coords = this.coords;
+      for (let i = 0; i < n; i++) {
+        coords[2 * i] = (points[2 * i]! - field.x0) * s;
+        coords[2 * i + 1] = (points[2 * i + 1]! - field.y0) * s;
+      }
+      perm = hilbertOrder(coords, n, Math.max(Wn, Hn));
+      for (let k = 0; k < n; k++) {
+        const i = perm[k]!;
+        sorted[2 * k] = coords[2 * i]!;
+        sorted[2 * k + 1] = coords[2 * i + 1]!;
+      }
+    } else {
+      if (this.identityPerm.length !== n) this.identityPerm = identity(n);
+      perm = this.identityPerm;
+      for (let i = 0; i < n; i++) {
+        sorted[2 * i] = (points[2 * i]! - field.x0) * s;
+        sorted[2 * i + 1] = (points[2 * i + 1]! - field.y0) * s;
+      }
+    }
+
+    let delaunay: Delaunay<Float64Array>;
+    if (this.delaunay) {
+      delaunay = this.delaunay.update();
+    } else {
+      delaunay = new Delaunay(sorted);
+    }
+    if ((delaunay as unknown as { collinear?: Int32Array }).collinear || delaunay.hull.length < 3) {
+      if (delaunay.hull.length < 3 && distinctCount(points) < 3) {
+        throw new DegeneratePointsError(`Only ${distinctCount(points)} of the ${n} points are distinct; a tessellation needs 3 distinct points not on one line.`);
+      }
+      throw new DegeneratePointsError(`All ${n} points lie on one line; a tessellation needs points spread in two dimensions.`);
+    }
+    const { triangles, halfedges, inedges } = delaunay;
+    const hullIndex = (delaunay as unknown as { _hullIndex: Int32Array })._hullIndex;
+    for (let k = 0; k < n; k++) {
+      if (inedges[k] === -1) {
+        const i = perm[k]!;
+        const j = perm[delaunay.find(sorted[2 * k]!, sorted[2 * k + 1]!, k === 0 ? 1 : 0)]!;
+        throw new DegeneratePointsError(
+          `Points ${Math.min(i, j) + 1} and ${Math.max(i, j) + 1} coincide at (${points[2 * i]}, ${points[2 * i + 1]}) px; remove or merge duplicate points first.`,
+        );
+      }
+    }
+
+    let voronoi = this.voronoi;
+    if (voronoi && this.delaunay) {
+      voronoi.xmin = 0;
+      voronoi.ymin = 0;
+      voronoi.xmax = Wn;
+      voronoi.ymax = Hn;
+      (voronoi as unknown as { _init(): void })._init();
+    } else {
+      voronoi = delaunay.voronoi([0, 0, Wn, Hn]);
+    }
+    this.delaunay = delaunay;
+    this.voronoi = voronoi;
+    this.n = n;
+    const cc = voronoi.circumcenters;
+
+    let a = this.arrays;
+    if (!a || !this.reuse) {
+      a = {
+        area: new Float64Array(n), perimeter: new Float64Array(n), sides: new Int32Array(n), edge: new Uint8Array(n),
+        bbox: new Float64Array(4 * n), centroid: new Float64Array(2 * n), degree: new Int32Array(n + 1), fill: new Int32Array(n),
+        neighbours: new Int32Array(6 * n),
+      };
+      this.arrays = a;
+    } else {
+      a.edge.fill(0);
+      a.degree.fill(0);
+    }
+    const { area, perimeter, sides, edge, bbox, centroid } = a;
+    const startSorted = this.startSorted;
+    const m = triangles.length;
+    const keep = this.keep;
+    keep.fill(0, 0, m);
+    const need = keepPolygons ? 2 * (m + 8 * delaunay.hull.length) : 256;
+    if (this.buf.data.length < need) this.buf = new Buffer64(need);
+    const buf = this.buf;
+    buf.length = 0;
+
+    // Border cells are drawn by d3 into this context; reused for every cell.
+    const scratch: number[] = [];
+    const spare: number[] = [];
+    const ctx = {
+      moveTo(x: number, y: number) { scratch.push(x, y); },
+      lineTo(x: number, y: number) { scratch.push(x, y); },
+      closePath() {},
+    };
+
     for (let k = 0; k < n; k++) {
       const i = perm[k]!;
-      sorted[2 * k] = coords[2 * i]!;
-      sorted[2 * k + 1] = coords[2 * i + 1]!;
-    }
-  }
-
-  const delaunay = new Delaunay(sorted);
-  if ((delaunay as unknown as { collinear?: Int32Array }).collinear || delaunay.hull.length < 3) {
-    if (delaunay.hull.length < 3 && distinctCount(points) < 3) {
-      throw new DegeneratePointsError(`Only ${distinctCount(points)} of the ${n} points are distinct; a tessellation needs 3 distinct points not on one line.`);
-    }
-    throw new DegeneratePointsError(`All ${n} points lie on one line; a tessellation needs points spread in two dimensions.`);
-  }
-  const { triangles, halfedges, inedges } = delaunay;
-  const hullIndex = (delaunay as unknown as { _hullIndex: Int32Array })._hullIndex;
-  for (let k = 0; k < n; k++) {
-    if (inedges[k] === -1) {
-      const i = perm[k]!;
-      const j = perm[delaunay.find(sorted[2 * k]!, sorted[2 * k + 1]!, k === 0 ? 1 : 0)]!;
-      throw new DegeneratePointsError(
-        `Points ${Math.min(i, j) + 1} and ${Math.max(i, j) + 1} coincide at (${points[2 * i]}, ${points[2 * i + 1]}) px; remove or merge duplicate points first.`,
-      );
-    }
-  }
-
-  const voronoi = delaunay.voronoi([0, 0, Wn, Hn]);
-  const cc = voronoi.circumcenters;
-
-  const area = new Float64Array(n);
-  const perimeter = new Float64Array(n);
-  const sides = new Int32Array(n);
-  const edge = new Uint8Array(n);
-  const bbox = new Float64Array(4 * n);
-  const centroid = new Float64Array(2 * n);
-  const startSorted = new Int32Array(n);
-  const buf = new Buffer64(keepPolygons ? 2 * (triangles.length + 8 * delaunay.hull.length) : 256);
-
-  // Border cells are drawn by d3 into this context; reused for every cell.
-  const scratch: number[] = [];
-  const spare: number[] = [];
-  const ctx = {
-    moveTo(x: number, y: number) { scratch.push(x, y); },
-    lineTo(x: number, y: number) { scratch.push(x, y); },
-    closePath() {},
-  };
-
-  for (let k = 0; k < n; k++) {
-    const i = perm[k]!;
-    if (!keepPolygons) buf.length = 0;
-    const start = buf.length;
-    let interior = hullIndex[k] === -1;
-    if (interior) {
-      const e0 = inedges[k]!;
-      // The vertex before the first belongs to the triangle across the incoming halfedge.
-      const tl = (halfedges[e0]! / 3) | 0;
-      let px = cc[2 * tl]!;
-      let py = cc[2 * tl + 1]!;
-      let e = e0;
-      do {
-        const t = (e / 3) | 0;
-        const x = cc[2 * t]!;
-        const y = cc[2 * t + 1]!;
-        if (!(x > 0 && x < Wn && y > 0 && y < Hn)) {
-          interior = false;
-          break;
-        }
-        if (Math.abs(x - px) > VERTEX_EPS || Math.abs(y - py) > VERTEX_EPS) buf.push2(x, y);
-        px = x;
-        py = y;
-        e = halfedges[e % 3 === 2 ? e - 2 : e + 1]!;
-      } while (e !== e0);
-      if (!interior) buf.length = start;
-    }
-    if (!interior) {
-      scratch.length = 0;
-      if (hullIndex[k] === -1) {
-        // A bounded cell that crosses the border: its own polygon clipped to the field (exact for convex
-        // cells, and much cheaper than the general clipping of unbounded cells).
+      if (!keepPolygons) buf.length = 0;
+      const start = buf.length;
+      let interior = hullIndex[k] === -1;
+      if (interior) {
         const e0 = inedges[k]!;
+        // The vertex before the first belongs to the triangle across the incoming halfedge.
+        const tl = (halfedges[e0]! / 3) | 0;
+        let px = cc[2 * tl]!;
+        let py = cc[2 * tl + 1]!;
+        let firstKept = false;
         let e = e0;
         do {
           const t = (e / 3) | 0;
-          scratch.push(cc[2 * t]!, cc[2 * t + 1]!);
+          const x = cc[2 * t]!;
+          const y = cc[2 * t + 1]!;
+          if (!(x > 0 && x < Wn && y > 0 && y < Hn)) {
+            interior = false;
+            break;
+          }
+          // The step from (px, py) to (x, y) is the Voronoi edge dual to e; with both ends inside the field
+          // its clipped length is max(|dx|, |dy|), so this test is also the neighbour test of neighbourGraph.
+          const kept = Math.abs(x - px) > VERTEX_EPS || Math.abs(y - py) > VERTEX_EPS;
+          if (kept) buf.push2(x, y);
+          if (e === e0) firstKept = kept;
+          else {
+            // (px, py) was checked inside at the previous step; the first edge waits for the walk to close.
+            const o = halfedges[e]!;
+            keep[o < e ? o : e] = kept ? 1 : 2;
+          }
+          px = x;
+          py = y;
           e = halfedges[e % 3 === 2 ? e - 2 : e + 1]!;
         } while (e !== e0);
-        clipToBox(scratch, spare, Wn, Hn);
-      } else {
-        voronoi.renderCell(k, ctx);
+        if (!interior) buf.length = start;
+        else {
+          const o = halfedges[e0]!;
+          keep[o < e0 ? o : e0] = firstKept ? 1 : 2;
+        }
       }
-      const m = scratch.length;
-      let px = scratch[m - 2]!;
-      let py = scratch[m - 1]!;
-      for (let j = 0; j < m; j += 2) {
-        const x = scratch[j]!;
-        const y = scratch[j + 1]!;
-        if (Math.abs(x - px) > VERTEX_EPS || Math.abs(y - py) > VERTEX_EPS) buf.push2(x, y);
-        px = x;
-        py = y;
+      if (!interior) {
+        scratch.length = 0;
+        if (hullIndex[k] === -1) {
+          // A bounded cell that crosses the border: its own polygon clipped to the field (exact for convex
+          // cells, and much cheaper than the general clipping of unbounded cells).
+          const e0 = inedges[k]!;
+          let e = e0;
+          do {
+            const t = (e / 3) | 0;
+            scratch.push(cc[2 * t]!, cc[2 * t + 1]!);
+            e = halfedges[e % 3 === 2 ? e - 2 : e + 1]!;
+          } while (e !== e0);
+          clipToBox(scratch, spare, Wn, Hn);
+        } else {
+          voronoi.renderCell(k, ctx);
+        }
+        const mm = scratch.length;
+        let px = scratch[mm - 2]!;
+        let py = scratch[mm - 1]!;
+        for (let j = 0; j < mm; j += 2) {
+          const x = scratch[j]!;
+          const y = scratch[j + 1]!;
+          if (Math.abs(x - px) > VERTEX_EPS || Math.abs(y - py) > VERTEX_EPS) buf.push2(x, y);
+          px = x;
+          py = y;
+        }
+        edge[i] = 1;
       }
-      edge[i] = 1;
+      startSorted[k] = start;
+      sides[i] = (buf.length - start) / 2;
+      polygonMeasures(buf.data, start, buf.length, i, area, perimeter, centroid, bbox);
     }
-    startSorted[k] = start;
-    sides[i] = (buf.length - start) / 2;
-    polygonMeasures(buf.data, start, buf.length, i, area, perimeter, centroid, bbox);
-  }
 
-  const inv2 = inv * inv;
-  for (let i = 0; i < n; i++) {
-    area[i] = area[i]! * inv2;
-    perimeter[i] = perimeter[i]! * inv;
-    centroid[2 * i] = centroid[2 * i]! * inv + field.x0;
-    centroid[2 * i + 1] = centroid[2 * i + 1]! * inv + field.y0;
-    bbox[4 * i] = Math.max(field.x0, bbox[4 * i]! * inv + field.x0);
-    bbox[4 * i + 1] = Math.max(field.y0, bbox[4 * i + 1]! * inv + field.y0);
-    bbox[4 * i + 2] = Math.min(field.x1, bbox[4 * i + 2]! * inv + field.x0);
-    bbox[4 * i + 3] = Math.min(field.y1, bbox[4 * i + 3]! * inv + field.y0);
-  }
-
-  const { neighbourOffsets, neighbourIndex } = neighbourGraph(sorted, perm, triangles, halfedges, cc, Wn, Hn, n);
-
-  const cells: CellTessellation = {
-    points: points.slice(),
-    field: { ...field },
-    area,
-    perimeter,
-    sides,
-    centroid,
-    edge,
-    bbox,
-    neighbourOffsets,
-    neighbourIndex,
-  };
-  if (!keepPolygons) return cells;
-
-  // Polygons in the caller's order and coordinates.
-  const polygonOffsets = new Int32Array(n + 1);
-  for (let i = 0; i < n; i++) polygonOffsets[i + 1] = polygonOffsets[i]! + sides[i]!;
-  const polygonCoords = new Float64Array(buf.length);
-  const rank = new Int32Array(n);
-  for (let k = 0; k < n; k++) rank[perm[k]!] = k;
-  const data = buf.data;
-  for (let i = 0; i < n; i++) {
-    let src = startSorted[rank[i]!]!;
-    const end = 2 * polygonOffsets[i + 1]!;
-    for (let dst = 2 * polygonOffsets[i]!; dst < end; dst += 2, src += 2) {
-      // Clamped so that vertices on the border sit exactly on it despite the rescaling.
-      polygonCoords[dst] = Math.min(field.x1, Math.max(field.x0, data[src]! * inv + field.x0));
-      polygonCoords[dst + 1] = Math.min(field.y1, Math.max(field.y0, data[src + 1]! * inv + field.y0));
+    const inv2 = inv * inv;
+    for (let i = 0; i < n; i++) {
+      area[i] = area[i]! * inv2;
+      perimeter[i] = perimeter[i]! * inv;
+      centroid[2 * i] = centroid[2 * i]! * inv + field.x0;
+      centroid[2 * i + 1] = centroid[2 * i + 1]! * inv + field.y0;
+      bbox[4 * i] = Math.max(field.x0, bbox[4 * i]! * inv + field.x0);
+      bbox[4 * i + 1] = Math.max(field.y0, bbox[4 * i + 1]! * inv + field.y0);
+      bbox[4 * i + 2] = Math.min(field.x1, bbox[4 * i + 2]! * inv + field.x0);
+      bbox[4 * i + 3] = Math.min(field.y1, bbox[4 * i + 3]! * inv + field.y0);
     }
+
+    const neighbourOffsets = a.degree;
+    const count = neighbourGraph(sorted, perm, triangles, halfedges, cc, Wn, Hn, n, keep, neighbourOffsets, a.fill, a.neighbours);
+    const neighbourIndex = this.reuse ? a.neighbours.subarray(0, count) : a.neighbours.slice(0, count);
+
+    this.lastInv = inv;
+    this.lastField = { ...field };
+    this.lastSides = sides;
+    this.lastRank = null;
+    if (output === 'retained' && reorder) {
+      const rank = new Int32Array(n);
+      for (let k = 0; k < n; k++) rank[perm[k]!] = k;
+      this.lastRank = rank;
+    }
+
+    const cells: CellTessellation = {
+      points: this.reuse ? points : points.slice(),
+      field: { ...field },
+      area,
+      perimeter,
+      sides,
+      centroid,
+      edge,
+      bbox,
+      neighbourOffsets,
+      neighbourIndex,
+    };
+    if (output !== 'polygons') return cells;
+
+    // Polygons in the caller's order and coordinates. Written in processing order: the reads then run
+    // through the buffer in sequence, and the scattered side are the writes, which do not stall.
+    const polygonOffsets = new Int32Array(n + 1);
+    for (let i = 0; i < n; i++) polygonOffsets[i + 1] = polygonOffsets[i]! + sides[i]!;
+    const polygonCoords = new Float64Array(buf.length);
+    const data = buf.data;
+    const { x0, y0, x1, y1 } = field;
+    for (let k = 0; k < n; k++) {
+      const i = perm[k]!;
+      let src = startSorted[k]!;
+      const end = 2 * polygonOffsets[i + 1]!;
+      for (let dst = 2 * polygonOffsets[i]!; dst < end; dst += 2, src += 2) {
+        // Clamped so that vertices on the border sit exactly on it despite the rescaling.
+        polygonCoords[dst] = Math.min(x1, Math.max(x0, data[src]! * inv + x0));
+        polygonCoords[dst + 1] = Math.min(y1, Math.max(y0, data[src + 1]! * inv + y0));
+      }
+    }
+    const tri = new Uint32Array(m);
+    if (reorder) for (let j = 0; j < m; j++) tri[j] = perm[triangles[j]!]!;
+    else tri.set(triangles.subarray(0, m));
+    return { ...cells, triangles: tri, polygonOffsets, polygonCoords };
   }
-  const tri = new Uint32Array(triangles.length);
-  for (let j = 0; j < tri.length; j++) tri[j] = perm[triangles[j]!]!;
-  return { ...cells, triangles: tri, polygonOffsets, polygonCoords };
 }
 
 /**
@@ -433,61 +583,68 @@ function clippedLength(ax: number, ay: number, dx: number, dy: number, tmax: num
   return (t1 - t0) * Math.max(Math.abs(dx), Math.abs(dy));
 }
 
-/** Neighbours: the Delaunay edges whose Voronoi edge, clipped to the field, has positive length (CSR). */
+/**
+ * Neighbours: the Delaunay edges whose Voronoi edge, clipped to the field, has positive length (CSR, in
+ * `offsets` (n + 1, zeroed) and `index`). keep[e] holds the decision for the edge of halfedge e when the
+ * cell walk already made it (1 neighbour, 2 not, 0 undecided). Returns the length of the index.
+ */
 function neighbourGraph(
   coords: Float64Array, perm: Int32Array, triangles: Uint32Array, halfedges: Int32Array, cc: Float64Array, W: number, H: number, n: number,
-): { neighbourOffsets: Int32Array; neighbourIndex: Int32Array } {
+  keep: Uint8Array, degree: Int32Array, fill: Int32Array, neighbourIndex: Int32Array,
+): number {
   const m = triangles.length;
-  const keep = new Uint8Array(m);
-  const degree = new Int32Array(n + 1);
   for (let e = 0; e < m; e++) {
     const o = halfedges[e]!;
     if (o !== -1 && o < e) continue;
-    const p = triangles[e]!;
-    const q = triangles[e % 3 === 2 ? e - 2 : e + 1]!;
-    const t = (e / 3) | 0;
-    const ax = cc[2 * t]!;
-    const ay = cc[2 * t + 1]!;
-    let len: number;
-    if (o !== -1) {
-      const u = (o / 3) | 0;
-      const bx = cc[2 * u]!;
-      const by = cc[2 * u + 1]!;
-      if (ax > 0 && ax < W && ay > 0 && ay < H && bx > 0 && bx < W && by > 0 && by < H) {
-        len = Math.max(Math.abs(bx - ax), Math.abs(by - ay));
-      } else {
-        len = clippedLength(ax, ay, bx - ax, by - ay, 1, W, H);
-      }
-    } else {
-      // Hull edge: the Voronoi edge is a ray from the circumcentre, perpendicular to the edge, pointing
-      // away from the triangle's third vertex.
-      const r = triangles[e % 3 === 0 ? e + 2 : e - 1]!;
-      const ex = coords[2 * q]! - coords[2 * p]!;
-      const ey = coords[2 * q + 1]! - coords[2 * p + 1]!;
-      let dx = ey;
-      let dy = -ex;
-      if (dx * (coords[2 * r]! - coords[2 * p]!) + dy * (coords[2 * r + 1]! - coords[2 * p + 1]!) > 0) {
-        dx = -dx;
-        dy = -dy;
-      }
-      len = clippedLength(ax, ay, dx, dy, Infinity, W, H);
+    let kp = keep[e]!;
+    if (kp === 0) {
+      kp = edgeLength(coords, triangles, cc, e, o, W, H) > VERTEX_EPS ? 1 : 2;
+      keep[e] = kp;
     }
-    if (len > VERTEX_EPS) {
-      keep[e] = 1;
-      degree[perm[p]! + 1]!++;
-      degree[perm[q]! + 1]!++;
+    if (kp === 1) {
+      degree[perm[triangles[e]!]! + 1]!++;
+      degree[perm[triangles[e % 3 === 2 ? e - 2 : e + 1]!]! + 1]!++;
     }
   }
   for (let i = 0; i < n; i++) degree[i + 1] = degree[i + 1]! + degree[i]!;
-  const neighbourOffsets = degree;
-  const neighbourIndex = new Int32Array(neighbourOffsets[n]!);
-  const fill = neighbourOffsets.slice(0, n);
+  const offsets = degree;
+  fill.set(offsets.subarray(0, n));
   for (let e = 0; e < m; e++) {
-    if (!keep[e]) continue;
+    if (keep[e] !== 1) continue;
     const p = perm[triangles[e]!]!;
     const q = perm[triangles[e % 3 === 2 ? e - 2 : e + 1]!]!;
     neighbourIndex[fill[p]!++] = q;
     neighbourIndex[fill[q]!++] = p;
   }
-  return { neighbourOffsets, neighbourIndex };
+  return offsets[n]!;
+}
+
+/** Chebyshev length of the Voronoi edge dual to halfedge e (opposite o, −1 on the hull), clipped to [0, W] x [0, H]. */
+function edgeLength(coords: Float64Array, triangles: Uint32Array, cc: Float64Array, e: number, o: number, W: number, H: number): number {
+  const t = (e / 3) | 0;
+  const ax = cc[2 * t]!;
+  const ay = cc[2 * t + 1]!;
+  if (o !== -1) {
+    const u = (o / 3) | 0;
+    const bx = cc[2 * u]!;
+    const by = cc[2 * u + 1]!;
+    if (ax > 0 && ax < W && ay > 0 && ay < H && bx > 0 && bx < W && by > 0 && by < H) {
+      return Math.max(Math.abs(bx - ax), Math.abs(by - ay));
+    }
+    return clippedLength(ax, ay, bx - ax, by - ay, 1, W, H);
+  }
+  // Hull edge: the Voronoi edge is a ray from the circumcentre, perpendicular to the edge, pointing
+  // away from the triangle's third vertex.
+  const p = triangles[e]!;
+  const q = triangles[e % 3 === 2 ? e - 2 : e + 1]!;
+  const r = triangles[e % 3 === 0 ? e + 2 : e - 1]!;
+  const ex = coords[2 * q]! - coords[2 * p]!;
+  const ey = coords[2 * q + 1]! - coords[2 * p + 1]!;
+  let dx = ey;
+  let dy = -ex;
+  if (dx * (coords[2 * r]! - coords[2 * p]!) + dy * (coords[2 * r + 1]! - coords[2 * p + 1]!) > 0) {
+    dx = -dx;
+    dy = -dy;
+  }
+  return clippedLength(ax, ay, dx, dy, Infinity, W, H);
 }
