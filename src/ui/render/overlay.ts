@@ -1,75 +1,37 @@
 /**
- * Overlay drawing that writes into any object with moveTo / lineTo / closePath: a canvas 2D context, a
- * Path2D, or the SVG path builder below. One renderer serves the Bench and the tests.
+ * The Bench's overlay drawing: the core's renderer (src/core/export/path.ts, the one the SVG export uses)
+ * plus the shapes only the Bench needs (field, circles, the largest gap) and a sink suited to Path2D.
  */
 import type { Tessellation } from '../../core/tessellate/types';
+import { drawCentroids, drawDelaunay, drawPolygons, SvgPath, type PathSink } from '../../core/export/path';
 import type { Rect } from '../../core/types';
 
-/** The drawing calls the renderer uses. */
-export interface PathSink {
-  moveTo(x: number, y: number): void;
-  lineTo(x: number, y: number): void;
-  closePath(): void;
-}
+export type { PathSink };
+export { drawPolygons, drawDelaunay, drawCentroids, SvgPath };
 
-/** Builds an SVG path `d` attribute; coordinates rounded to 0.01 px. */
-export class SvgPathBuilder implements PathSink {
-  private parts: string[] = [];
-  moveTo(x: number, y: number): void { this.parts.push(`M${r2(x)} ${r2(y)}`); }
-  lineTo(x: number, y: number): void { this.parts.push(`L${r2(x)} ${r2(y)}`); }
-  closePath(): void { this.parts.push('Z'); }
-  toString(): string { return this.parts.join(''); }
+/**
+ * A sink that passes drawing on but closes each subpath with a line back to its first point instead of
+ * closePath(): Chromium's Path2D.closePath() gets slower with the path's length, which made one path of
+ * 20 000 Voronoi cells take seconds to build.
+ */
+export class LineClosingSink implements PathSink {
+  private x0 = 0;
+  private y0 = 0;
+  constructor(private readonly target: { moveTo(x: number, y: number): void; lineTo(x: number, y: number): void }) {}
+  moveTo(x: number, y: number): void { this.x0 = x; this.y0 = y; this.target.moveTo(x, y); }
+  lineTo(x: number, y: number): void { this.target.lineTo(x, y); }
+  closePath(): void { this.target.lineTo(this.x0, this.y0); }
 }
-function r2(v: number): number { return Math.round(v * 100) / 100; }
 
 /** Cell count of a tessellation. */
 export function cellCount(t: Tessellation): number {
   return t.points.length / 2;
 }
 
-/** The clipped Voronoi cells as closed polygons (each ends on its first vertex). Cells listed in `only` (0-based) when given. */
-export function drawVoronoi(sink: PathSink, t: Tessellation, only?: Iterable<number>): void {
-  const cells = only ?? range(cellCount(t));
-  for (const i of cells) {
-    const a = t.polygonOffsets[i], b = t.polygonOffsets[i + 1];
-    if (b - a < 2) continue;
-    sink.moveTo(t.polygonCoords[2 * a], t.polygonCoords[2 * a + 1]);
-    for (let k = a + 1; k < b; k++) sink.lineTo(t.polygonCoords[2 * k], t.polygonCoords[2 * k + 1]);
-    // Closed with a line back to the first vertex, not closePath(): Chromium's Path2D.closePath() gets
-    // slower with the path's length, which made a 20 000-cell path take seconds.
-    sink.lineTo(t.polygonCoords[2 * a], t.polygonCoords[2 * a + 1]);
-  }
-}
-
-/** Each Delaunay edge once (the edge i-j of a triangle is drawn where i < j or it has no twin). */
-export function drawDelaunay(sink: PathSink, t: Tessellation): number {
-  const p = t.points;
-  const seen = new Set<number>();
-  const n = cellCount(t);
-  let edges = 0;
-  for (let k = 0; k < t.triangles.length; k += 3) {
-    for (let e = 0; e < 3; e++) {
-      const i = t.triangles[k + e], j = t.triangles[k + ((e + 1) % 3)];
-      const key = i < j ? i * n + j : j * n + i;
-      if (seen.has(key)) continue;
-      seen.add(key);
-      sink.moveTo(p[2 * i], p[2 * i + 1]);
-      sink.lineTo(p[2 * j], p[2 * j + 1]);
-      edges++;
-    }
-  }
-  return edges;
-}
-
-/** A small plus sign of half-size `r` (px) at each centroid. */
-export function drawCentroids(sink: PathSink, points: Float64Array, r: number): void {
-  for (let i = 0; i < points.length; i += 2) {
-    const x = points[i], y = points[i + 1];
-    sink.moveTo(x - r, y);
-    sink.lineTo(x + r, y);
-    sink.moveTo(x, y - r);
-    sink.lineTo(x, y + r);
-  }
+/** The clipped Voronoi cells, or only the cells (0-based) listed in `only`. */
+export function drawVoronoi(sink: PathSink, t: Tessellation, only?: readonly number[]): void {
+  const set = only ? new Set(only) : null;
+  drawPolygons(sink, t.polygonOffsets, t.polygonCoords, set ? (i) => set.has(i) : undefined);
 }
 
 /** A rectangle outline. */
@@ -132,8 +94,4 @@ export function niceScaleLength(maxUm: number): number {
     if (v <= maxUm) return v;
   }
   return 10 ** k;
-}
-
-function* range(n: number): Generator<number> {
-  for (let i = 0; i < n; i++) yield i;
 }

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { SvgPathBuilder, drawVoronoi, drawDelaunay, drawCentroids, drawRect, largestGap, nearestCentroid, niceScaleLength } from '../../../src/ui/render/overlay';
+import { SvgPath, LineClosingSink, drawVoronoi, drawDelaunay, drawCentroids, drawRect, largestGap, nearestCentroid, niceScaleLength } from '../../../src/ui/render/overlay';
 import { tessellate } from '../../../src/core/tessellate/index';
 
 // Four seeds at the centres of the quadrants of a 100 x 100 field: the Voronoi cells are the quadrants.
@@ -7,9 +7,10 @@ const t = tessellate(new Float64Array([25, 25, 75, 25, 25, 75, 75, 75]), { x0: 0
 
 describe('overlay renderer (draws into any moveTo/lineTo sink)', () => {
   it('draws one closed polygon per Voronoi cell', () => {
-    const p = new SvgPathBuilder();
-    drawVoronoi(p, t);
+    const p = new SvgPath();
+    drawVoronoi(new LineClosingSink(p), t);
     const d = p.toString();
+    expect(d).not.toContain('Z');
     expect(d.match(/M/g)?.length).toBe(4);
     // Each polygon ends where it began.
     for (const poly of d.split('M').slice(1)) {
@@ -23,20 +24,20 @@ describe('overlay renderer (draws into any moveTo/lineTo sink)', () => {
     }
   });
   it('draws only the cells asked for', () => {
-    const p = new SvgPathBuilder();
+    const p = new SvgPath();
     drawVoronoi(p, t, [2]);
     expect(p.toString().match(/M/g)?.length).toBe(1);
   });
   it('draws each Delaunay edge once: a square cut into 2 triangles has 4 sides and 1 diagonal', () => {
-    const p = new SvgPathBuilder();
-    expect(drawDelaunay(p, t)).toBe(5);
+    const p = new SvgPath();
+    drawDelaunay(p, t);
     expect(p.toString().match(/M/g)?.length).toBe(5);
   });
   it('centroid crosses and rectangles', () => {
-    const p = new SvgPathBuilder();
+    const p = new SvgPath();
     drawCentroids(p, t.points, 2);
     expect(p.toString().match(/M/g)?.length).toBe(8);
-    const r = new SvgPathBuilder();
+    const r = new SvgPath();
     drawRect(r, { x0: 1, y0: 2, x1: 3, y1: 4 });
     expect(r.toString()).toBe('M1 2L3 2L3 4L1 4Z');
   });
