@@ -7,8 +7,8 @@
 import { SettingsError, TooFewCellsError } from '../errors';
 import { mulberry32, subSeed } from '../random';
 import type { EdgeRule } from '../settings';
-import { Tessellator, type Tessellation } from '../tessellate';
-import { windowCells } from './window';
+import { Tessellator } from '../tessellate';
+import { windowCellsRetained } from './window';
 import type { Rect } from '../types';
 import { gammaCdf } from '../stats/dist';
 import {
@@ -183,7 +183,7 @@ export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
       pts[2 * i] = rng() * RW + region.x0;
       pts[2 * i + 1] = rng() * RH + region.y0;
     }
-    const t = layout === 'window' ? windowCells(engine.run(pts, region, 'polygons') as Tessellation, field) : engine.run(pts, field, 'cells');
+    const t = layout === 'window' ? windowCellsRetained(engine.run(pts, region, 'retained'), engine, field) : engine.run(pts, field, 'cells');
     const sample = cellSample(t.area, t.edge, t.bbox, field, edgeRule, minArea);
     const m = sample.index.length;
     values.interiorCells[r] = m;

@@ -2,7 +2,7 @@
  * A window on a larger tessellation: the cells of a tessellation of a guard region that meet the field,
  * cut by the field's border, as a micrograph shows a tissue or a polished section.
  */
-import type { CellTessellation, Tessellation } from '../tessellate';
+import type { CellTessellation, Tessellation, Tessellator } from '../tessellate';
 import type { Rect } from '../types';
 
 /**
@@ -13,10 +13,26 @@ import type { Rect } from '../types';
  * only neighbours that meet the field. `points` holds the clipped cells' centroids.
  */
 export function windowCells(t: Tessellation, field: Rect): CellTessellation {
+  return windowOf(t, field, (i, out) => {
+    out.length = 0;
+    for (let v = t.polygonOffsets[i]!; v < t.polygonOffsets[i + 1]!; v++) out.push(t.polygonCoords[2 * v]!, t.polygonCoords[2 * v + 1]!);
+  });
+}
+
+/**
+ * As {@link windowCells}, for the cells of the last 'retained' run of `engine` (the polygons stay inside
+ * the engine, which saves building them for every cell). Same values bit for bit.
+ */
+export function windowCellsRetained(t: CellTessellation, engine: Tessellator, field: Rect): CellTessellation {
+  return windowOf(t, field, (i, out) => engine.cellPolygon(i, out));
+}
+
+function windowOf(t: CellTessellation, field: Rect, polygonOf: (i: number, out: number[]) => void): CellTessellation {
   const n = t.area.length;
   const map = new Int32Array(n).fill(-1);
   const kind = new Uint8Array(n); // 0 outside, 1 inside, 2 crossing
-  const clipped: (number[] | null)[] = new Array(n).fill(null);
+  const clipped: (number[] | null)[] = [];
+  const clippedOf = new Int32Array(n);
   let m = 0;
   for (let i = 0; i < n; i++) {
     const x0 = t.bbox[4 * i]!, y0 = t.bbox[4 * i + 1]!, x1 = t.bbox[4 * i + 2]!, y1 = t.bbox[4 * i + 3]!;
@@ -25,7 +41,7 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
       kind[i] = 1;
     } else {
       let poly: number[] = [];
-      for (let v = t.polygonOffsets[i]!; v < t.polygonOffsets[i + 1]!; v++) poly.push(t.polygonCoords[2 * v]!, t.polygonCoords[2 * v + 1]!);
+      polygonOf(i, poly);
       poly = clipAxis(poly, 0, field.x0, 1);
       poly = clipAxis(poly, 0, field.x1, -1);
       poly = clipAxis(poly, 1, field.y0, 1);
@@ -33,7 +49,8 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
       // A box can meet the field while the cell only grazes it (near a corner): no area, no cell.
       if (poly.length < 6 || !(polygonArea(poly) > 0)) continue;
       kind[i] = 2;
-      clipped[i] = poly;
+      clippedOf[i] = clipped.length;
+      clipped.push(poly);
     }
     map[i] = m++;
   }
@@ -44,15 +61,16 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
   const edge = new Uint8Array(m);
   const bbox = new Float64Array(4 * m);
   const offsets = new Int32Array(m + 1);
-  const nb: number[] = [];
+  const nb = new Int32Array(t.neighbourIndex.length);
+  let nbLength = 0;
   for (let i = 0; i < n; i++) {
     const k = map[i]!;
     if (k < 0) continue;
     for (let q = t.neighbourOffsets[i]!; q < t.neighbourOffsets[i + 1]!; q++) {
       const j = map[t.neighbourIndex[q]!]!;
-      if (j >= 0) nb.push(j);
+      if (j >= 0) nb[nbLength++] = j;
     }
-    offsets[k + 1] = nb.length;
+    offsets[k + 1] = nbLength;
     if (kind[i] === 1) {
       area[k] = t.area[i]!;
       perimeter[k] = t.perimeter[i]!;
@@ -63,7 +81,7 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
       continue;
     }
     edge[k] = 1;
-    measure(clipped[i]!, k, area, perimeter, sides, centroid, bbox);
+    measure(clipped[clippedOf[i]!]!, k, area, perimeter, sides, centroid, bbox);
   }
   return {
     points: centroid.slice(),
@@ -75,7 +93,7 @@ export function windowCells(t: Tessellation, field: Rect): CellTessellation {
     edge,
     bbox,
     neighbourOffsets: offsets,
-    neighbourIndex: Int32Array.from(nb),
+    neighbourIndex: nb.slice(0, nbLength),
   };
 }
 
