@@ -303,28 +303,11 @@ const api: WorkerApi = {
   },
 };
 
-/**
- * The files `tessellab analyze` writes for one image, written by the same core functions with the same
- * arguments, so that they equal the command line's byte for byte.
- */
+/** The files `tessellab analyze` writes for one image: the core's one list, so they match byte for byte. */
 async function filesFor(a: Analysis, fileName: string, kinds: ExportKind[]): Promise<ExportFile[]> {
   const ex = await exporters();
-  const stem = baseName(fileName);
-  const enc = new TextEncoder();
-  const needOutlines = kinds.includes('cells.geojson') || kinds.includes('overlay.svg');
-  const outlines = needOutlines ? await (await pipeline()).outlinesOf(a) : null;
-  const out: ExportFile[] = [];
-  for (const k of kinds) {
-    switch (k) {
-      case 'cells.csv': out.push({ name: `${stem}.cells.csv`, bytes: enc.encode(ex.cellsCsv(a)), mime: 'text/csv' }); break;
-      case 'summary.json': out.push({ name: `${stem}.summary.json`, bytes: enc.encode(ex.summaryJson(a, { image: fileName })), mime: 'application/json' }); break;
-      case 'cells.geojson': out.push({ name: `${stem}.cells.geojson`, bytes: enc.encode(ex.cellsGeoJson(a, outlines)), mime: 'application/geo+json' }); break;
-      case 'overlay.svg': out.push({ name: `${stem}.overlay.svg`, bytes: enc.encode(ex.overlaySvg(a, outlines)), mime: 'image/svg+xml' }); break;
-      case 'labels.png': if (a.labels) out.push({ name: `${stem}.labels.png`, bytes: ex.labelsPng(a), mime: 'image/png' }); break;
-      case 'settings.json': out.push({ name: 'settings.json', bytes: enc.encode(ex.settingsJson(a.settings)), mime: 'application/json' }); break;
-    }
-  }
-  return out;
+  const outlines = ex.needsOutlines(kinds) ? await (await pipeline()).outlinesOf(a) : null;
+  return ex.imageFiles(a, fileName, outlines, kinds).map((f) => ({ name: f.name, bytes: f.data, mime: f.mime }));
 }
 
 Comlink.expose(api);

@@ -71,7 +71,8 @@ export interface ExportFile {
 }
 
 /** The export formats the worker writes with the core's export functions. */
-export type ExportKind = 'cells.csv' | 'summary.json' | 'cells.geojson' | 'overlay.svg' | 'labels.png' | 'settings.json';
+import type { ImageFileKind } from '../src/core/export/files';
+export type ExportKind = ImageFileKind;
 
 export interface AnalyzeRequest {
   id: string;

@@ -4,10 +4,10 @@
  * settings.json and summary.csv. A bad image gets one line on stderr; the others are still analysed.
  */
 import { readFile } from 'node:fs/promises';
-import { basename, extname } from 'node:path';
+import { basename } from 'node:path';
 import { analyze, outlinesOf } from '../../core/analyze';
 import { describeError, SettingsError } from '../../core/errors';
-import { cellsCsv, cellsGeoJson, labelsPng, overlaySvg, settingsJson, summaryCsv, summaryJson } from '../../core/export/index';
+import { imageFiles, settingsJson, summaryCsv } from '../../core/export/index';
 import { decodeImage } from '../../core/image/decode';
 import { resolvePixelSize } from '../../core/image/calibration';
 import { parsePointsCsv } from '../../core/segment/points';
@@ -58,7 +58,6 @@ export const command: Command = {
     for (let i = 0; i < files.length; i++) {
       const file = files[i]!;
       const name = basename(file);
-      const stem = basename(file, extname(file));
       const say = (stage: string) => process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${stage}\n`);
       try {
         say('reading');
@@ -80,11 +79,7 @@ export const command: Command = {
         lastSettings = analysis.settings;
         say('writing');
         const outlines = await outlinesOf(analysis);
-        await writeOut(outDir, `${stem}.cells.csv`, cellsCsv(analysis));
-        await writeOut(outDir, `${stem}.summary.json`, summaryJson(analysis, { image: name }));
-        await writeOut(outDir, `${stem}.cells.geojson`, cellsGeoJson(analysis, outlines));
-        await writeOut(outDir, `${stem}.overlay.svg`, overlaySvg(analysis, outlines));
-        if (analysis.labels) await writeOut(outDir, `${stem}.labels.png`, labelsPng(analysis));
+        for (const f of imageFiles(analysis, name, outlines)) await writeOut(outDir, f.name, f.data);
         const s = analysis.summary as { cells: { count: number; interior: number } };
         say(`done: ${s.cells.count} cells (${s.cells.interior} interior)`);
         rows.push({ name, summary: analysis.summary });

@@ -12,8 +12,13 @@ export function settingsJson(settings: Settings): string {
   return JSON.stringify(settings, null, 2) + '\n';
 }
 
+/**
+ * Non-finite numbers become null; others keep 12 significant digits, far beyond any measurement's
+ * precision, so that the last-bit differences between JavaScript engines' maths libraries (Monte Carlo
+ * sums in Node and in a browser) do not change the file.
+ */
 function replacer(_k: string, v: unknown): unknown {
-  if (typeof v === 'number' && !Number.isFinite(v)) return null;
+  if (typeof v === 'number') return Number.isFinite(v) ? (Number.isInteger(v) ? v : Number(v.toPrecision(12))) : null;
   if (ArrayBuffer.isView(v) && !(v instanceof DataView)) return Array.from(v as unknown as ArrayLike<number>);
   return v;
 }
