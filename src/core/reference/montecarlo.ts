@@ -46,8 +46,29 @@ export interface ReferenceOptions {
    * Integral Geometry and Geometric Probability; derived, memory).
    */
   density?: number;
-  /** Called after each replicate with the fraction done. */
+  /** Called after each replicate with the fraction done (once with 1 when the reference comes from the cache). */
   onProgress?: (fraction: number) => void;
+  /**
+   * Default true: keep the reference in a small in-memory cache keyed by everything it depends on (cells,
+   * field, replicates, seed, edge rule, minimum area, layout, density), so that a re-analysis with the
+   * same keys returns it at once. A cached reference is shared: treat it as read-only.
+   */
+  cache?: boolean;
+}
+
+/** How many references the cache keeps (least recently used dropped first; each is a few hundred kB). */
+export const REFERENCE_CACHE_SIZE = 8;
+const cache = new Map<string, Reference>();
+
+/** Empties the reference cache (for memory, or to time a cold run). */
+export function clearReferenceCache(): void {
+  cache.clear();
+}
+
+function cacheKey(o: ReferenceOptions): string {
+  const f = o.field;
+  const minArea = o.minCellAreaPx && o.minCellAreaPx > 0 ? o.minCellAreaPx : 0;
+  return JSON.stringify([o.cells, f.x0, f.y0, f.x1, f.y1, o.replicates, o.seed, o.edgeRule, minArea, o.layout ?? 'seeds', o.density ?? null]);
 }
 
 /** Names of the scalar statistics every replicate records. */
@@ -118,10 +139,33 @@ export interface Reference {
  * area distribution; the L-function by max_r |L(r) − L̄(r)| (a maximum-deviation test; Diggle 2003,
  * Statistical Analysis of Spatial Point Patterns; pub, memory).
  *
+ * A reference is cached (see {@link ReferenceOptions.cache}): the same options give the very same object,
+ * which is frozen at its top level and must not be modified.
+ *
  * @throws SettingsError on a bad count, field or replicate number; TooFewCellsError when the field holds
  *   so few cells that no replicate has an interior cell
  */
 export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
+  if (opts.cache === false) return draw(opts);
+  const key = cacheKey(opts);
+  const hit = cache.get(key);
+  if (hit) {
+    cache.delete(key);
+    cache.set(key, hit);
+    opts.onProgress?.(1);
+    return hit;
+  }
+  const ref = draw(opts);
+  Object.freeze(ref.options.field);
+  Object.freeze(ref.options);
+  Object.freeze(ref.warnings);
+  Object.freeze(ref);
+  cache.set(key, ref);
+  while (cache.size > REFERENCE_CACHE_SIZE) cache.delete(cache.keys().next().value!);
+  return ref;
+}
+
+function draw(opts: ReferenceOptions): Reference {
   const { cells, field, replicates: R, seed, edgeRule } = opts;
   const minArea = opts.minCellAreaPx && opts.minCellAreaPx > 0 ? opts.minCellAreaPx : 0;
   const layout: ReferenceLayout = opts.layout ?? 'seeds';

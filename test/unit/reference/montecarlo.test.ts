@@ -120,3 +120,34 @@ describe('window cells', () => {
     expect(a).toBeCloseTo(200 * 190, 6);
   });
 });
+
+describe('Monte Carlo reference: cache', () => {
+  const o = { cells: 150, field: { x0: 0, y0: 0, x1: 300, y1: 200 }, replicates: 7, seed: 11, edgeRule: 'exclude' as const, layout: 'window' as const };
+  it('a repeated request returns the cached reference, equal to a fresh draw (derived: the reference is a function of its options)', async () => {
+    const { clearReferenceCache } = await import('../../../src/core/reference/montecarlo');
+    clearReferenceCache();
+    const a = referenceMonteCarlo(o);
+    let progress = 0;
+    const b = referenceMonteCarlo({ ...o, field: { ...o.field }, onProgress: (f) => (progress = f) });
+    expect(b).toBe(a);
+    expect(progress).toBe(1);
+    const fresh = referenceMonteCarlo({ ...o, cache: false });
+    expect(fresh).not.toBe(a);
+    expect(JSON.stringify(referenceSummary(fresh, { includeValues: true }))).toEqual(JSON.stringify(referenceSummary(a, { includeValues: true })));
+    expect(Object.isFrozen(a)).toBe(true);
+  });
+  it('any change of cells, field, replicates, seed, edge rule, minimum area or layout draws a new reference', () => {
+    const a = referenceMonteCarlo(o);
+    const changed = [
+      { ...o, cells: 151 }, { ...o, field: { ...o.field, x1: 301 } }, { ...o, replicates: 8 }, { ...o, seed: 12 },
+      { ...o, edgeRule: 'weight' as const }, { ...o, minCellAreaPx: 5 }, { ...o, layout: 'seeds' as const }, { ...o, density: 0.003 },
+    ];
+    for (const c of changed) {
+      const r = referenceMonteCarlo(c);
+      expect(r).not.toBe(a);
+      expect(r.options.seed === a.options.seed && r.options.cells === a.options.cells && r.options.replicates === a.options.replicates
+        && r.options.edgeRule === a.options.edgeRule && r.options.layout === a.options.layout && r.options.minCellAreaPx === a.options.minCellAreaPx
+        && r.options.field.x1 === a.options.field.x1 && r.options.density === a.options.density).toBe(false);
+    }
+  });
+});
