@@ -8,6 +8,7 @@ import { cropImage, reanalyzeLabels } from '../../core/analyze';
 import { describeError, SettingsError, TessellabError } from '../../core/errors';
 import { decodeImage } from '../../core/image/decode';
 import { encodePng } from '../../core/image/encode';
+import { kineticsCsv, kineticsJson } from '../../core/export/kinetics';
 import { analyzeSeriesDetailed, parseTimesCsv, parseTimesList, timesFromNames, type KineticsResult } from '../../core/kinetics/index';
 import { resolveSettings, type SettingsInput } from '../../core/settings';
 import type { GreyImage, Rect } from '../../core/types';
@@ -40,21 +41,6 @@ function parseField(v: string): Rect {
   return { x0: p[0]!, y0: p[1]!, x1: p[2]!, y1: p[3]! };
 }
 
-function csvCell(s: string): string {
-  return /[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** kinetics.csv: one row per frame, units in the column names. */
-export function kineticsCsv(r: KineticsResult): string {
-  const areaCol = r.areaUnit === 'µm²' ? 'mean_domain_area_um2' : 'mean_domain_area_px2';
-  const unit = r.timeUnit.replace(/[^A-Za-z0-9]/g, '') || 'unit';
-  const lines = [`frame,file,time_${unit},fraction,domains,${areaCol},new_domains`];
-  for (const f of r.frames) {
-    lines.push([f.frame, csvCell(f.source), f.time, f.fraction, f.domains, f.meanDomainArea ?? '', f.newDomains].join(','));
-  }
-  return lines.join('\n') + '\n';
-}
-
 function headline(r: KineticsResult): string {
   const a = r.avrami;
   const ci = (x: [number, number] | null, d = 3): string => (x ? ` [${x[0].toPrecision(d)}, ${x[1].toPrecision(d)}]` : '');
@@ -65,6 +51,8 @@ function headline(r: KineticsResult): string {
     `  ${r.interpretation.statement}`,
   ].join('\n');
 }
+
+export { kineticsCsv };
 
 export const command: Command = {
   name: 'kinetics',
@@ -138,7 +126,7 @@ export const command: Command = {
     const out = o.get('out') ?? '.';
     await mkdir(out, { recursive: true });
     await writeFile(join(out, 'kinetics.csv'), kineticsCsv(result));
-    await writeFile(join(out, 'kinetics.json'), JSON.stringify(result, null, 2) + '\n');
+    await writeFile(join(out, 'kinetics.json'), kineticsJson(result));
     await writeFile(join(out, 'settings.json'), JSON.stringify(settings, null, 2) + '\n');
     for (const w of result.warnings) process.stderr.write(`kinetics: warning: ${w}\n`);
     process.stdout.write(headline(result) + '\n');

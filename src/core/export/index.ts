@@ -4,3 +4,4 @@ export { cellsGeoJson, overlaySvg, type OverlayStyle } from './geometry';
 export { labelsPng } from './labels';
 export { drawPolygons, drawVoronoi, drawDelaunay, drawCentroids, SvgPath, type PathSink } from './path';
 export { imageFiles, needsOutlines, fileStem, IMAGE_FILE_KINDS, type ImageFileKind, type OutputFile } from './files';
+export { kineticsCsv, kineticsJson } from './kinetics';
