@@ -79,8 +79,13 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
   const ymax = new Int32Array(count).fill(-1);
   const edge = new Uint8Array(count);
 
-  // Sweep 1: moments by runs (a run of one label in a row contributes closed-form sums).
+  // Sweep 1: moments by runs (a run of one label in a row contributes closed-form sums). The runs of
+  // cells are kept (label, first x, end x; rows in order) for the hull's row extents below.
+  let runs = new Int32Array(Math.max(48, 3 * (h + count * 8)));
+  let nRuns = 0;
+  const rowRuns = new Int32Array(h + 1);
   for (let y = 0; y < h; y++) {
+    rowRuns[y] = nRuns;
     const row = y * w;
     let x = 0;
     while (x < w) {
@@ -109,10 +114,20 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
         if (y < ymin[c]!) ymin[c] = y;
         if (y > ymax[c]!) ymax[c] = y;
         if (x === 0 || e === w || y === 0 || y === h - 1) edge[c] = 1;
+        if (3 * nRuns + 3 > runs.length) {
+          const more = new Int32Array(runs.length * 2);
+          more.set(runs);
+          runs = more;
+        }
+        runs[3 * nRuns] = l;
+        runs[3 * nRuns + 1] = x;
+        runs[3 * nRuns + 2] = e;
+        nRuns++;
       }
       x = e;
     }
   }
+  rowRuns[h] = nRuns;
 
   const cx = new Float64Array(count);
   const cy = new Float64Array(count);
@@ -137,58 +152,75 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
   const rowHi = new Int32Array(rowOff[count]!).fill(-1);
 
   // Sweep 2: 2x2 windows over the image padded by one pixel of "outside" (-1) for perimeter, plus
-  // row extents and neighbour pairs.
+  // row extents and neighbour pairs. Windows are visited in raster order (so every sum is added in the
+  // same order whatever the path); inner rows slide the window along two rows without bounds tests.
   const perimeter = new Float64Array(count);
-  // Pair key -> shared boundary length in pixel edges.
-  const pairs = new Map<number, number>();
+  // Pair keys (a * stride + b, a < b) in order of first meeting; the order fixes the neighbour lists'.
+  const pairs = new Set<number>();
   const stride = count + 1;
-  const addEdge = (k: number): void => {
-    pairs.set(k, (pairs.get(k) ?? 0) + 1);
+  let last0 = -1;
+  let last1 = -1;
+  const addPair = (k: number): void => {
+    // Runs of one pair along a boundary are the rule: two remembered keys spare most set look-ups.
+    if (k === last0 || k === last1) return;
+    pairs.add(k);
+    last1 = last0;
+    last0 = k;
   };
   const fourWay: number[] = [];
-  const at = (x: number, y: number): number => (x < 0 || y < 0 || x >= w || y >= h ? -1 : L[y * w + x]!);
-  for (let y = -1; y < h; y++) {
-    for (let x = -1; x < w; x++) {
-      const a = at(x, y);
-      const b = at(x + 1, y);
-      const c = at(x, y + 1);
-      const d = at(x + 1, y + 1);
-      if (a === b && a === c && a === d) continue;
-      // Each distinct cell label in the window gets its segment length.
-      if (a > 0) perimeter[a - 1]! += MS_LEN[1 | (b === a ? 2 : 0) | (c === a ? 4 : 0) | (d === a ? 8 : 0)]!;
-      if (b > 0 && b !== a) perimeter[b - 1]! += MS_LEN[2 | (c === b ? 4 : 0) | (d === b ? 8 : 0)]!;
-      if (c > 0 && c !== a && c !== b) perimeter[c - 1]! += MS_LEN[4 | (d === c ? 8 : 0)]!;
-      if (d > 0 && d !== a && d !== b && d !== c) perimeter[d - 1]! += MS_LEN[8]!;
-      // Four cells meeting at one point: resolved after the sweep (see resolveFourWay).
-      if (a > 0 && b > 0 && c > 0 && d > 0 && a !== b && a !== c && a !== d && b !== c && b !== d && c !== d) {
-        fourWay.push(x, y, a, b, c, d);
-      }
-      // Neighbour pairs across pixel edges: d-b (vertical edge) and d-c (horizontal edge).
-      if (d > 0) {
-        if (b > 0 && b !== d) {
-          const k = b < d ? b * stride + d : d * stride + b;
-          addEdge(k);
-        }
-        if (c > 0 && c !== d) {
-          const k = c < d ? c * stride + d : d * stride + c;
-          addEdge(k);
-        }
-      }
+  const windowAt = (x: number, y: number, a: number, b: number, c: number, d: number): void => {
+    // Each distinct cell label in the window gets its segment length.
+    if (a > 0) perimeter[a - 1]! += MS_LEN[1 | (b === a ? 2 : 0) | (c === a ? 4 : 0) | (d === a ? 8 : 0)]!;
+    if (b > 0 && b !== a) perimeter[b - 1]! += MS_LEN[2 | (c === b ? 4 : 0) | (d === b ? 8 : 0)]!;
+    if (c > 0 && c !== a && c !== b) perimeter[c - 1]! += MS_LEN[4 | (d === c ? 8 : 0)]!;
+    if (d > 0 && d !== a && d !== b && d !== c) perimeter[d - 1]! += MS_LEN[8]!;
+    // Four cells meeting at one point: resolved after the sweep (see resolveFourWay).
+    if (a > 0 && b > 0 && c > 0 && d > 0 && a !== b && a !== c && a !== d && b !== c && b !== d && c !== d) {
+      fourWay.push(x, y, a, b, c, d);
     }
+    // Neighbour pairs across pixel edges: d-b (vertical edge) and d-c (horizontal edge).
+    if (d > 0) {
+      if (b > 0 && b !== d) addPair(b < d ? b * stride + d : d * stride + b);
+      if (c > 0 && c !== d) addPair(c < d ? c * stride + d : d * stride + c);
+    }
+  };
+  const at = (x: number, y: number): number => (x < 0 || y < 0 || x >= w || y >= h ? -1 : L[y * w + x]!);
+  const padded = (x: number, y: number): void => {
+    const a = at(x, y);
+    const b = at(x + 1, y);
+    const c = at(x, y + 1);
+    const d = at(x + 1, y + 1);
+    if (a === b && a === c && a === d) return;
+    windowAt(x, y, a, b, c, d);
+  };
+  for (let y = -1; y < h; y++) {
+    if (y < 0 || y >= h - 1) {
+      for (let x = -1; x < w; x++) padded(x, y);
+      continue;
+    }
+    padded(-1, y);
+    const top = y * w;
+    const bot = top + w;
+    let b = L[top]!;
+    let d = L[bot]!;
+    for (let x = 0; x < w - 1; x++) {
+      const a = b;
+      const c = d;
+      b = L[top + x + 1]!;
+      d = L[bot + x + 1]!;
+      if (a === b && a === c && a === d) continue;
+      windowAt(x, y, a, b, c, d);
+    }
+    padded(w - 1, y);
   }
   for (let y = 0; y < h; y++) {
-    const row = y * w;
-    let x = 0;
-    while (x < w) {
-      const l = L[row + x]!;
-      let e = x + 1;
-      while (e < w && L[row + e] === l) e++;
-      if (l > 0) {
-        const r = rowOff[l - 1]! + (y - ymin[l - 1]!);
-        if (x < rowLo[r]!) rowLo[r] = x;
-        if (e > rowHi[r]!) rowHi[r] = e;
-      }
-      x = e;
+    for (let i = rowRuns[y]!; i < rowRuns[y + 1]!; i++) {
+      const l = runs[3 * i]!;
+      const x = runs[3 * i + 1]!;
+      const e = runs[3 * i + 2]!;
+      const r = rowOff[l - 1]! + (y - ymin[l - 1]!);
+      if (x < rowLo[r]!) rowLo[r] = x;
+      if (e > rowHi[r]!) rowHi[r] = e;
     }
   }
 
@@ -229,12 +261,12 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
 
   for (let i = 0; i < fourWay.length; i += 6) {
     const k = resolveFourWay(img, fourWay[i]! + 1, fourWay[i + 1]! + 1, fourWay[i + 2]!, fourWay[i + 3]!, fourWay[i + 4]!, fourWay[i + 5]!, stride);
-    if (k >= 0 && !pairs.has(k)) pairs.set(k, 0);
+    if (k >= 0) pairs.add(k);
   }
 
   // Neighbour CSR from the pair set.
   const deg = new Int32Array(count + 1);
-  for (const k of pairs.keys()) {
+  for (const k of pairs) {
     const a = Math.floor(k / stride) - 1;
     const b = (k % stride) - 1;
     deg[a + 1]!++;
@@ -244,7 +276,7 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
   const neighbourOffsets = deg.slice();
   const pos = deg.slice(0, count);
   const neighbourIndex = new Int32Array(neighbourOffsets[count]!);
-  for (const k of pairs.keys()) {
+  for (const k of pairs) {
     const a = Math.floor(k / stride) - 1;
     const b = (k % stride) - 1;
     neighbourIndex[pos[a]!++] = b;
