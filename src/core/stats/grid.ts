@@ -43,7 +43,10 @@ export function buildGrid(points: Float64Array, field: Rect, cell: number): Poin
 }
 
 /**
- * Distance from each point to its nearest other point (px), by ring search in a bucket grid.
+ * Distance from each point to its nearest other point (px), by ring search in a bucket grid of about one
+ * point per bucket: the rings around a point's bucket are searched until every bucket left is farther
+ * (from the point, to the searched block's border) than the nearest point found. Exact: the minimum of
+ * the squared distances does not depend on the order they are visited in.
  * @param points interleaved x, y (px), at least 2 distinct positions
  * @param field the rectangle the points lie in
  */
@@ -54,35 +57,67 @@ export function nearestNeighbourDistances(points: Float64Array, field: Rect): Fl
   const spacing = Math.sqrt(((field.x1 - field.x0) * (field.y1 - field.y0)) / n);
   const g = buildGrid(points, field, spacing);
   const { gw, gh, start, order, cell } = g;
-  for (let i = 0; i < n; i++) {
-    const x = points[2 * i]!;
-    const y = points[2 * i + 1]!;
-    const gx = Math.min(gw - 1, Math.max(0, Math.floor((x - g.x0) / cell)));
-    const gy = Math.min(gh - 1, Math.max(0, Math.floor((y - g.y0) / cell)));
-    let best = Infinity;
-    for (let ring = 0; ; ring++) {
-      // Points in ring `ring` are at least (ring - 1) * cell away (the point sits somewhere in its bucket).
-      if ((ring - 1) * cell > Math.sqrt(best)) break;
-      if (ring > gw && ring > gh) break;
-      const ya = gy - ring;
-      const yb = gy + ring;
-      for (let yy = Math.max(0, ya); yy <= Math.min(gh - 1, yb); yy++) {
-        const onEdgeRow = yy === ya || yy === yb;
-        for (let xx = Math.max(0, gx - ring); xx <= Math.min(gw - 1, gx + ring); xx++) {
-          if (!onEdgeRow && xx !== gx - ring && xx !== gx + ring) continue;
-          const b = yy * gw + xx;
-          for (let q = start[b]!; q < start[b + 1]!; q++) {
-            const j = order[q]!;
-            if (j === i) continue;
-            const dx = points[2 * j]! - x;
-            const dy = points[2 * j + 1]! - y;
-            const d2 = dx * dx + dy * dy;
-            if (d2 < best) best = d2;
+  // Coordinates in bucket order: a row of buckets is then one run of memory.
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let q = 0; q < n; q++) {
+    xs[q] = points[2 * order[q]!]!;
+    ys[q] = points[2 * order[q]! + 1]!;
+  }
+  // Safety factor on the stopping distance: rounding in the bucket bounds must never stop a search early.
+  const SHRINK = 1 - 1e-9;
+  for (let by = 0; by < gh; by++) {
+    for (let bx = 0; bx < gw; bx++) {
+      const b = by * gw + bx;
+      for (let q = start[b]!; q < start[b + 1]!; q++) {
+        const x = xs[q]!;
+        const y = ys[q]!;
+        const rx = x - g.x0;
+        const ry = y - g.y0;
+        let best = Infinity;
+        for (let ring = 0; ; ring++) {
+          const xa = Math.max(0, bx - ring);
+          const xb = Math.min(gw - 1, bx + ring);
+          const ya = by - ring;
+          const yb = by + ring;
+          for (let yy = Math.max(0, ya); yy <= Math.min(gh - 1, yb); yy++) {
+            const row = yy * gw;
+            // Whole rows at the top and bottom of the ring, the two end buckets on the rows between.
+            const full = ring === 0 || yy === ya || yy === yb;
+            for (let side = 0; side < (full ? 1 : 2); side++) {
+              let u0: number;
+              let u1: number;
+              if (full) {
+                u0 = start[row + xa]!;
+                u1 = start[row + xb + 1]!;
+              } else {
+                const xx = side === 0 ? bx - ring : bx + ring;
+                if (xx < 0 || xx >= gw) continue;
+                u0 = start[row + xx]!;
+                u1 = start[row + xx + 1]!;
+              }
+              for (let u = u0; u < u1; u++) {
+                if (u === q) continue;
+                const dx = xs[u]! - x;
+                const dy = ys[u]! - y;
+                const d2 = dx * dx + dy * dy;
+                if (d2 < best) best = d2;
+              }
+            }
           }
+          // Distance from the point to the nearest unsearched bucket (none left on a side at the grid's edge).
+          let bound = Infinity;
+          if (bx - ring > 0) bound = Math.min(bound, rx - (bx - ring) * cell);
+          if (bx + ring < gw - 1) bound = Math.min(bound, (bx + ring + 1) * cell - rx);
+          if (by - ring > 0) bound = Math.min(bound, ry - (by - ring) * cell);
+          if (by + ring < gh - 1) bound = Math.min(bound, (by + ring + 1) * cell - ry);
+          if (bound === Infinity) break;
+          bound *= SHRINK;
+          if (bound > 0 && best <= bound * bound) break;
         }
+        out[order[q]!] = Math.sqrt(best);
       }
     }
-    out[i] = Math.sqrt(best);
   }
   return out;
 }
