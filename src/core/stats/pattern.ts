@@ -438,25 +438,27 @@ export function lFunction(points: Float64Array, field: Rect, radii: Float64Array
   }
   const r2max = rmax * rmax;
   const invDr = 1 / dr;
+  // The bucket side is at least rmax: pairs lie in this bucket, the next one, or the three below. In
+  // row-major bucket order this bucket and the next one are one run of memory, and so are the three
+  // below; pairs are visited in the same order as bucket by bucket, so the sums are the same.
   for (let by = 0; by < gh; by++) {
     for (let bx = 0; bx < gw; bx++) {
       const b = by * gw + bx;
+      const end0 = start[bx + 1 < gw ? b + 2 : b + 1]!;
+      let lo1 = 0;
+      let hi1 = 0;
+      if (by + 1 < gh) {
+        const row = (by + 1) * gw;
+        lo1 = start[row + (bx > 0 ? bx - 1 : 0)]!;
+        hi1 = start[row + (bx + 1 < gw ? bx + 2 : bx + 1)]!;
+      }
       const bEnd = start[b + 1]!;
       for (let q = start[b]!; q < bEnd; q++) {
         const x = xs[q]!;
         const y = ys[q]!;
-        // The bucket side is at least rmax: pairs lie in this bucket, the next one, or the row below.
-        for (let c = 0; c < 5; c++) {
-          let xx = bx;
-          let yy = by;
-          if (c === 1) xx = bx + 1;
-          else if (c === 2) { xx = bx - 1; yy = by + 1; }
-          else if (c === 3) yy = by + 1;
-          else if (c === 4) { xx = bx + 1; yy = by + 1; }
-          if (xx < 0 || xx >= gw || yy >= gh) continue;
-          const cb = yy * gw + xx;
-          const uEnd = start[cb + 1]!;
-          for (let u = c === 0 ? q + 1 : start[cb]!; u < uEnd; u++) {
+        for (let run = 0; run < 2; run++) {
+          const uEnd = run === 0 ? end0 : hi1;
+          for (let u = run === 0 ? q + 1 : lo1; u < uEnd; u++) {
             const dx = xs[u]! - x;
             const dy = ys[u]! - y;
             const d2 = dx * dx + dy * dy;
