@@ -433,6 +433,30 @@ export class Tessellator {
 }
 
 /**
+ * One level of the Hilbert index as a table, so that the loop has no branches: entry (state << 2 | xbit << 1
+ * | ybit) holds the quadrant digit (low 2 bits) and the next state (high bits). A state is how the remaining
+ * lower bits are transformed (bit 1: x and y swapped, bit 0: both complemented); the digit is (3·rx) ^ ry of
+ * the transformed bits, and a quadrant with ry = 0 swaps, and complements too if rx = 1 (the usual
+ * rotation step of the Hilbert curve).
+ */
+const HILBERT_STEP = (() => {
+  const t = new Uint8Array(16);
+  for (let st = 0; st < 4; st++) {
+    const swap = st >> 1;
+    const comp = st & 1;
+    for (let q = 0; q < 4; q++) {
+      const ox = q >> 1;
+      const oy = q & 1;
+      const rx = (swap ? oy : ox) ^ comp;
+      const ry = (swap ? ox : oy) ^ comp;
+      const next = ry === 0 ? ((swap ^ 1) << 1) | (comp ^ rx) : st;
+      t[(st << 2) | q] = (next << 2) | ((3 * rx) ^ ry);
+    }
+  }
+  return t;
+})();
+
+/**
  * A permutation of the points along a Hilbert curve over a 2^k x 2^k grid covering [0, side]^2
  * (about one point per grid cell), by counting sort. (Hilbert 1891, Math. Ann. 38:459; pub, memory.)
  */
@@ -443,22 +467,14 @@ function hilbertOrder(coords: Float64Array, n: number, side: number): Int32Array
   const key = new Int32Array(n);
   const count = new Int32Array(g * g + 1);
   for (let i = 0; i < n; i++) {
-    let x = Math.min(g - 1, Math.floor(coords[2 * i]! * scale));
-    let y = Math.min(g - 1, Math.floor(coords[2 * i + 1]! * scale));
+    const x = Math.min(g - 1, Math.floor(coords[2 * i]! * scale));
+    const y = Math.min(g - 1, Math.floor(coords[2 * i + 1]! * scale));
+    let st = 0;
     let d = 0;
-    for (let s = g >> 1; s > 0; s >>= 1) {
-      const rx = (x & s) > 0 ? 1 : 0;
-      const ry = (y & s) > 0 ? 1 : 0;
-      d += s * s * ((3 * rx) ^ ry);
-      if (ry === 0) {
-        if (rx === 1) {
-          x = g - 1 - x;
-          y = g - 1 - y;
-        }
-        const t = x;
-        x = y;
-        y = t;
-      }
+    for (let lev = k - 1; lev >= 0; lev--) {
+      const e = HILBERT_STEP[(st << 2) | (((x >> lev) & 1) << 1) | ((y >> lev) & 1)]!;
+      d = (d << 2) | (e & 3);
+      st = e >> 2;
     }
     key[i] = d;
     count[d + 1]!++;
