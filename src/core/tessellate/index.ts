@@ -381,7 +381,7 @@ export class Tessellator {
     }
 
     const neighbourOffsets = a.degree;
-    const count = neighbourGraph(sorted, perm, triangles, halfedges, cc, Wn, Hn, n, keep, neighbourOffsets, a.fill, a.neighbours);
+    const count = neighbourGraph(sorted, perm, triangles, halfedges, inedges, cc, Wn, Hn, n, sides, edge, keep, neighbourOffsets, a.fill, a.neighbours);
     const neighbourIndex = this.reuse ? a.neighbours.subarray(0, count) : a.neighbours.slice(0, count);
 
     this.lastInv = inv;
@@ -601,26 +601,40 @@ function clippedLength(ax: number, ay: number, dx: number, dy: number, tmax: num
 
 /**
  * Neighbours: the Delaunay edges whose Voronoi edge, clipped to the field, has positive length (CSR, in
- * `offsets` (n + 1, zeroed) and `index`). keep[e] holds the decision for the edge of halfedge e when the
- * cell walk already made it (1 neighbour, 2 not, 0 undecided). Returns the length of the index.
+ * `degree` (n + 1, zeroed; becomes the offsets) and `neighbourIndex`). keep[e] holds the decision for the
+ * edge of halfedge e when the cell walk already made it (1 neighbour, 2 not, 0 undecided): the walk of an
+ * interior cell decides all its edges, and its sides are its degree, so only the edges around border
+ * cells (edge = 1) are looked at here. Returns the length of the index; neighbours are listed in the
+ * order of their edges' halfedge numbers.
  */
 function neighbourGraph(
-  coords: Float64Array, perm: Int32Array, triangles: Uint32Array, halfedges: Int32Array, cc: Float64Array, W: number, H: number, n: number,
+  coords: Float64Array, perm: Int32Array, triangles: Uint32Array, halfedges: Int32Array, inedges: Int32Array, cc: Float64Array,
+  W: number, H: number, n: number, sides: Int32Array, edge: Uint8Array,
   keep: Uint8Array, degree: Int32Array, fill: Int32Array, neighbourIndex: Int32Array,
 ): number {
   const m = triangles.length;
-  for (let e = 0; e < m; e++) {
-    const o = halfedges[e]!;
-    if (o !== -1 && o < e) continue;
-    let kp = keep[e]!;
-    if (kp === 0) {
-      kp = edgeLength(coords, triangles, cc, e, o, W, H) > VERTEX_EPS ? 1 : 2;
-      keep[e] = kp;
+  for (let k = 0; k < n; k++) {
+    const i = perm[k]!;
+    if (!edge[i]) {
+      degree[i + 1] = sides[i]!;
+      continue;
     }
-    if (kp === 1) {
-      degree[perm[triangles[e]!]! + 1]!++;
-      degree[perm[triangles[e % 3 === 2 ? e - 2 : e + 1]!]! + 1]!++;
-    }
+    // Around point k: every incoming halfedge, and on the hull the outgoing hull halfedge that ends the walk.
+    let count = 0;
+    const e0 = inedges[k]!;
+    let e = e0;
+    do {
+      const o = halfedges[e]!;
+      count += decide(coords, triangles, halfedges, cc, keep, o !== -1 && o < e ? o : e, W, H);
+      const out = e % 3 === 2 ? e - 2 : e + 1;
+      const next = halfedges[out]!;
+      if (next === -1) {
+        count += decide(coords, triangles, halfedges, cc, keep, out, W, H);
+        break;
+      }
+      e = next;
+    } while (e !== e0);
+    degree[i + 1] = count;
   }
   for (let i = 0; i < n; i++) degree[i + 1] = degree[i + 1]! + degree[i]!;
   const offsets = degree;
@@ -633,6 +647,16 @@ function neighbourGraph(
     neighbourIndex[fill[q]!++] = p;
   }
   return offsets[n]!;
+}
+
+/** The neighbour decision of the edge of canonical halfedge c (the lower of the pair), made once: 1 if kept. */
+function decide(coords: Float64Array, triangles: Uint32Array, halfedges: Int32Array, cc: Float64Array, keep: Uint8Array, c: number, W: number, H: number): number {
+  let kp = keep[c]!;
+  if (kp === 0) {
+    kp = edgeLength(coords, triangles, cc, c, halfedges[c]!, W, H) > VERTEX_EPS ? 1 : 2;
+    keep[c] = kp;
+  }
+  return kp === 1 ? 1 : 0;
 }
 
 /** Chebyshev length of the Voronoi edge dual to halfedge e (opposite o, −1 on the hull), clipped to [0, W] x [0, H]. */
