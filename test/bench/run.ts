@@ -3,7 +3,8 @@
  * runs after a warm-up; a table on stdout, Markdown after it, JSON in bench-results/latest.json.
  *
  * Flags: --runs N (timed runs per case, default 5), --only id,id (cases by id), --browser (also the
- * 16 MP image through the web app's worker in headless Chromium), --no-node (browser part only).
+ * 16 MP image through the web app's worker in headless Chromium), --browser-runs N (default 2),
+ * --no-node (browser part only).
  */
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -19,20 +20,22 @@ interface Flags {
   runs: number;
   only: string[] | null;
   browser: boolean;
+  browserRuns: number;
   node: boolean;
 }
 
 function parseFlags(argv: string[]): Flags {
-  const f: Flags = { runs: 5, only: null, browser: false, node: true };
+  const f: Flags = { runs: 5, only: null, browser: false, browserRuns: 2, node: true };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i]!;
     if (a === '--runs') f.runs = Math.max(1, Number(argv[++i]));
     else if (a === '--only') f.only = argv[++i]!.split(',');
     else if (a === '--browser') f.browser = true;
+    else if (a === '--browser-runs') (f.browserRuns = Math.max(1, Number(argv[++i]))), (f.browser = true);
     else if (a === '--no-node') f.node = false;
-    else throw new Error(`Unknown flag ${a}; use --runs N, --only id,id, --browser or --no-node.`);
+    else throw new Error(`Unknown flag ${a}; use --runs N, --only id,id, --browser, --browser-runs N or --no-node.`);
   }
-  if (!Number.isInteger(f.runs)) throw new Error('--runs takes a whole number.');
+  if (!Number.isInteger(f.runs) || !Number.isInteger(f.browserRuns)) throw new Error('--runs and --browser-runs take a whole number.');
   return f;
 }
 
@@ -181,7 +184,7 @@ async function main(): Promise<void> {
   if (flags.browser) {
     const { browserBench } = await import('./browser');
     try {
-      browser = await browserBench(ROOT, flags.runs);
+      browser = await browserBench(ROOT, flags.browserRuns);
     } catch (e) {
       browser = { error: e instanceof Error ? e.message : String(e) };
     }
