@@ -37,8 +37,9 @@ export function cellSample(area: Float64Array, edge: Uint8Array, bbox: Float64Ar
   const n = area.length;
   const W = field.x1 - field.x0;
   const H = field.y1 - field.y0;
-  const idx: number[] = [];
-  const w: number[] = [];
+  const idx = new Int32Array(n);
+  const w = new Float64Array(n);
+  let m = 0;
   for (let i = 0; i < n; i++) {
     if (edge[i] || !(area[i]! >= minCellAreaPx) || !(area[i]! > 0)) continue;
     let weight = 1;
@@ -48,12 +49,12 @@ export function cellSample(area: Float64Array, edge: Uint8Array, bbox: Float64Ar
       if (!(b1 < W && b2 < H)) continue;
       weight = (W * H) / ((W - b1) * (H - b2));
     }
-    idx.push(i);
-    w.push(weight);
+    idx[m] = i;
+    w[m++] = weight;
   }
   let weightSum = 0;
-  for (const v of w) weightSum += v;
-  return { index: Int32Array.from(idx), weight: Float64Array.from(w), weightSum };
+  for (let k = 0; k < m; k++) weightSum += w[k]!;
+  return { index: idx.slice(0, m), weight: w.slice(0, m), weightSum };
 }
 
 /** Side-number statistics of a cell sample. */
