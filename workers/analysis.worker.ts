@@ -5,9 +5,9 @@
  */
 import * as Comlink from 'comlink';
 import { zipSync } from 'fflate';
-import { THUMB_SIDE } from './protocol';
+import { KINETICS_THUMB_SIDE, THUMB_SIDE } from './protocol';
 import type {
-  AnalysisResult, AnalyzeRequest, ExportFile, ExportKind, OpenResult, Overlay, PreviewResult, ProgressFn, WorkerApi,
+  AnalysisResult, AnalyzeRequest, ExportFile, ExportKind, KineticsRequest, OpenResult, Overlay, PreviewResult, ProgressFn, WorkerApi,
 } from './protocol';
 import type { Analysis } from '../src/core/analysis.types';
 import type { GreyImage, LabelImage } from '../src/core/types';
@@ -45,6 +45,8 @@ interface Opened {
   name: string;
   kind: 'image' | 'points';
   image: GreyImage | null;
+  /** Every page of the file (a multi-page TIFF is a series); [image] for one page, [] for points. */
+  pages: GreyImage[];
   points: Float64Array | null;
   width: number;
   height: number;
@@ -52,6 +54,11 @@ interface Opened {
 }
 
 const opened = new Map<string, Opened>();
+/** The last kinetics run's frames and mosaic, for "Analyse the final frame as a tessellation". */
+let lastSeries: {
+  last: GreyImage; mosaic: import('../src/core/kinetics/series').FinalMosaic; result: import('../src/core/kinetics/types').KineticsResult;
+  umPerPx: number | null; minCellAreaPx: number;
+} | null = null;
 const current = new Map<string, Analysis>();
 const bases = new Map<string, LabelImage>();
 const controllers = new Map<string, AbortController>();
@@ -116,7 +123,86 @@ async function ensureOpened(id: string): Promise<Opened> {
   throw new Error(`Image ${id} is not open in the worker; open it first.`);
 }
 
+/** A filmstrip thumbnail of a frame (contrast-stretched like the Bench). */
+async function frameThumb(img: GreyImage): Promise<ImageBitmap> {
+  const b = await bitmapOf(displayRgba(img), img.width, img.height);
+  const k = Math.min(1, KINETICS_THUMB_SIDE / Math.max(img.width, img.height));
+  if (k >= 1) return b;
+  const t = await createImageBitmap(b, { resizeWidth: Math.max(1, Math.round(img.width * k)), resizeHeight: Math.max(1, Math.round(img.height * k)), resizeQuality: 'medium' });
+  b.close();
+  return t;
+}
+
+/** Frames, their sources and times as `tessellab kinetics` gathers them (names give the order too). */
+async function seriesOf(req: KineticsRequest): Promise<{ frames: GreyImage[]; sources: string[]; times: number[]; fileUmPerPx: number | null }> {
+  const k = await import('../src/core/kinetics/index');
+  const frames: GreyImage[] = [];
+  const sources: string[] = [];
+  let fileUmPerPx: number | null = null;
+  for (const id of req.ids) {
+    const o = await ensureOpened(id);
+    if (o.kind !== 'image') throw new Error(`${o.name} is a point set; a kinetics series needs images.`);
+    fileUmPerPx ??= o.umPerPxFromFile;
+    const name = o.name.split(/[\\/]/).pop() ?? o.name;
+    o.pages.forEach((p, i) => {
+      frames.push(p);
+      sources.push(o.pages.length > 1 ? `${name}[${i + 1}]` : name);
+    });
+  }
+  let times = req.times.kind === 'list' ? k.parseTimesList(req.times.text)
+    : req.times.kind === 'csv' ? k.parseTimesCsv(req.times.text, sources) : k.timesFromNames(sources);
+  if (req.times.kind === 'names') {
+    const order = times.map((_, i) => i).sort((a, b) => times[a] - times[b]);
+    if (order.some((j, i) => j !== i)) {
+      const [f, s] = [frames.slice(), sources.slice()];
+      order.forEach((j, i) => { frames[i] = f[j]; sources[i] = s[j]; });
+      times = order.map((j) => times[j]);
+    }
+  }
+  return { frames, sources, times, fileUmPerPx };
+}
+
 const api: WorkerApi = {
+  async kinetics(req, onProgress) {
+    await pipeline();
+    const { frames, sources, times, fileUmPerPx } = await seriesOf(req);
+    const settings = resolveSettings(req.settings);
+    if (settings.umPerPx === null && fileUmPerPx !== null) settings.umPerPx = fileUmPerPx;
+    const { analyzeSeriesDetailed } = await import('../src/core/kinetics/index');
+    const { kineticsCsv, kineticsJson } = await import('../src/core/export/kinetics');
+    const { result, mosaic } = await analyzeSeriesDetailed(frames, times, settings, {
+      timeUnit: req.timeUnit || 's', sources, allowDecreasing: req.allowDecreasing, onProgress: (st, f) => onProgress?.(st, f),
+    });
+    lastSeries = { last: frames[frames.length - 1], mosaic, result, umPerPx: settings.umPerPx, minCellAreaPx: settings.minCellAreaPx };
+    const thumbs: ImageBitmap[] = [];
+    for (const f of frames) thumbs.push(await frameThumb(f));
+    const enc = new TextEncoder();
+    const files: ExportFile[] = [
+      { name: 'kinetics.csv', bytes: enc.encode(kineticsCsv(result)), mime: 'text/csv' },
+      { name: 'kinetics.json', bytes: enc.encode(kineticsJson(result)), mime: 'application/json' },
+      { name: 'settings.json', bytes: enc.encode(JSON.stringify(settings, null, 2) + '\n'), mime: 'application/json' },
+    ];
+    const run = { result, thumbs, files, width: frames[0].width, height: frames[0].height };
+    return Comlink.transfer(run, [...thumbs, ...files.map((f) => f.bytes.buffer as ArrayBuffer)]);
+  },
+
+  async kineticsFinal(id) {
+    const s = lastSeries;
+    if (!s) throw new Error('Run the kinetics of a series first; the final frame comes from that run.');
+    const { encodePng } = await import('../src/core/image/encode');
+    const bytes = encodePng({ width: s.last.width, height: s.last.height, data: s.last.data, channels: 1, bitDepth: s.last.bitDepth });
+    // As `tessellab kinetics --final-analysis`: the mosaic's labels measured on the last frame in the series' field.
+    bases.set(id, s.mosaic.labels);
+    try {
+      const db = await openSessionDb();
+      await db.put('base', { id, labels: s.mosaic.labels });
+    } catch (e) {
+      console.warn('Tessellab: could not store the mosaic', e);
+    }
+    const settings: SettingsInput = { pattern: 'walls', field: s.result.field, umPerPx: s.umPerPx, minCellAreaPx: s.minCellAreaPx };
+    return Comlink.transfer({ bytes, settings, domains: s.mosaic.labels.count, complete: s.mosaic.complete }, [bytes.buffer as ArrayBuffer]);
+  },
+
   async warmUp(onProgress) {
     await pipeline(onProgress);
   },
@@ -140,12 +226,12 @@ const api: WorkerApi = {
       let mx = 0, my = 0;
       for (let i = 0; i < p.points.length; i += 2) { mx = Math.max(mx, p.points[i]); my = Math.max(my, p.points[i + 1]); }
       const width = Math.max(1, Math.ceil(mx)), height = Math.max(1, Math.ceil(my));
-      o = { name, kind: 'points', image: null, points: p.points, width, height, umPerPxFromFile: null };
+      o = { name, kind: 'points', image: null, pages: [], points: p.points, width, height, umPerPxFromFile: null };
     } else {
       const { decodeImage } = await import('../src/core/image/decode');
       const d = await decodeImage(data, { name, maxPixels });
       const page = d.pages[0];
-      o = { name, kind: 'image', image: page, points: null, width: page.width, height: page.height, umPerPxFromFile: d.umPerPx };
+      o = { name, kind: 'image', image: page, pages: d.pages, points: null, width: page.width, height: page.height, umPerPxFromFile: d.umPerPx };
       opened.set(id, o);
       const bitmap = await bitmapOf(displayRgba(page), page.width, page.height);
       const thumb = await thumbOf(bitmap, 'high');

@@ -96,7 +96,56 @@ export interface GrainResult {
   offsetY: number;
 }
 
+/** Where the times of a kinetics series come from: typed, the last number in each file name, or a CSV of file,time. */
+export type KineticsTimes = { kind: 'list'; text: string } | { kind: 'names' } | { kind: 'csv'; text: string };
+
+/** A kinetics run: the frames are every page of each listed image, in the order given. */
+export interface KineticsRequest {
+  /** Images (already opened) whose pages are the frames, in order. */
+  ids: string[];
+  times: KineticsTimes;
+  /** Unit of the times, for labels and the CSV column name. */
+  timeUnit: string;
+  /** settings.kinetics, umPerPx, field and minCellAreaPx are used (the pixel size of the first file when none is given). */
+  settings: SettingsInput;
+  /** Fit even when the fraction decreases between frames. */
+  allowDecreasing: boolean;
+}
+
+/** The result of a kinetics run as the page gets it. */
+export interface KineticsRun {
+  result: import('../src/core/kinetics/types').KineticsResult;
+  /** One small bitmap per frame (at most KINETICS_THUMB_SIDE px on its long side), in the order analysed. */
+  thumbs: ImageBitmap[];
+  /** The files `tessellab kinetics` writes for the same frames and settings. */
+  files: ExportFile[];
+  /** Size (px) of the frames. */
+  width: number;
+  height: number;
+}
+
+/** Long side (px) of the filmstrip's thumbnails. */
+export const KINETICS_THUMB_SIDE = 96;
+
+/** The final frame of the last kinetics run, ready to be added as a walls entry measured on the mosaic's labels. */
+export interface KineticsFinal {
+  /** The last frame as a PNG (its own bit depth): the image of the new entry. */
+  bytes: Uint8Array;
+  /** Settings for the new entry: walls pattern, the series' field, pixel size and minimum area. */
+  settings: SettingsInput;
+  /** Domains in the final mosaic. */
+  domains: number;
+  complete: boolean;
+}
+
 export interface WorkerApi {
+  /** Kinetics of an image series (frames from opened images), with thumbnails and the command line's files. */
+  kinetics(req: KineticsRequest, onProgress?: ProgressFn): Promise<KineticsRun>;
+  /**
+   * Prepares the final mosaic of the last kinetics run as the entry `id`: its domain labels become that
+   * entry's stored labels, so a re-measure ('reuseLabels') analyses the mosaic as a walls pattern.
+   */
+  kineticsFinal(id: string): Promise<KineticsFinal>;
   /** Grain size (ASTM E112) of the current result of an image. */
   grain(id: string): Promise<GrainResult>;
   /** Loads opencv.js (lazily; the page calls it early so that it loads while the person looks around). */

@@ -5,7 +5,7 @@
  */
 import * as Comlink from 'comlink';
 import type {
-  AnalysisResult, AnalyzeRequest, ExportFile, GrainResult, ExportKind, OpenResult, PreviewResult, ProgressFn, WorkerApi,
+  AnalysisResult, AnalyzeRequest, ExportFile, GrainResult, ExportKind, KineticsFinal, KineticsRequest, KineticsRun, OpenResult, PreviewResult, ProgressFn, WorkerApi,
 } from '../../workers/protocol';
 import type { SettingsInput } from '../core/settings';
 
@@ -179,6 +179,17 @@ export class Bridge {
   async grain(id: string): Promise<GrainResult> {
     await this.ensureOpen(id);
     return this.call((api) => api.grain(id));
+  }
+
+  /** Kinetics of a series of opened images (each is re-opened from its stored copy after a restart). */
+  async kinetics(req: KineticsRequest, onProgress?: ProgressFn): Promise<KineticsRun> {
+    for (const id of req.ids) await this.ensureOpen(id);
+    return this.call((api) => api.kinetics(req, onProgress ? Comlink.proxy(onProgress) : undefined));
+  }
+
+  /** The final frame of the last kinetics run, prepared as the entry `id` (its labels stored in the worker). */
+  async kineticsFinal(id: string): Promise<KineticsFinal> {
+    return this.call((api) => api.kineticsFinal(id));
   }
 
   async exportFiles(id: string, kinds: ExportKind[]): Promise<ExportFile[]> {

@@ -7,6 +7,7 @@ import { defaultSettings, resolveSettings, type Settings } from '../../core/sett
 import type { EditOp } from '../../core/edit/labels';
 import type { Rect } from '../../core/types';
 import type { AnalysisResult, GrainResult, PreviewResult } from '../../../workers/protocol';
+import { KineticsState } from './kinetics.svelte';
 import { Bridge, CancelledRunError, SupersededError, WorkerCrashedError } from '../bridge';
 import {
   deleteEntry, loadEntries, loadSession, saveEntry, saveSession, type EntryStatus, type Layers, type StoredEntry,
@@ -16,14 +17,15 @@ import {
 export const WEB_MAX_PIXELS = 64_000_000;
 
 export type Tool = 'pan' | 'scale' | 'field' | 'split';
-export type PanelName = 'scale' | 'detect' | 'cells' | 'randomness' | 'grain' | 'export';
+export type PanelName = 'scale' | 'detect' | 'cells' | 'randomness' | 'grain' | 'kinetics' | 'export';
 export const PANELS: { name: PanelName; label: string; key: string }[] = [
   { name: 'scale', label: 'Scale', key: '1' },
   { name: 'detect', label: 'Detect', key: '2' },
   { name: 'cells', label: 'Cells', key: '3' },
   { name: 'randomness', label: 'Randomness', key: '4' },
   { name: 'grain', label: 'Grain size', key: '5' },
-  { name: 'export', label: 'Export', key: '6' },
+  { name: 'kinetics', label: 'Kinetics', key: '6' },
+  { name: 'export', label: 'Export', key: '7' },
 ];
 
 type Mode = 'restore' | 'segment' | 'measure';
@@ -59,6 +61,8 @@ export class Entry {
   width = $state(0);
   height = $state(0);
   umPerPxFromFile = $state<number | null>(null);
+  /** Pages in the file (a multi-page TIFF can be a kinetics series); 1 until opened. */
+  pages = $state(1);
   settings = $state<Settings>(defaultSettings());
   ops = $state.raw<EditOp[]>([]);
   redo = $state.raw<EditOp[]>([]);
@@ -72,6 +76,8 @@ export class Entry {
   /** File bytes until the worker has stored them. */
   bytes: Uint8Array | null = null;
   opened = false;
+  /** The opening in progress, shared by everyone who needs the file open. */
+  opening: Promise<void> | null = null;
 
   constructor(id: string, name: string) {
     this.id = id;
@@ -130,6 +136,8 @@ export class AppState {
   demoAdded = false;
 
   readonly bridge: Bridge;
+  /** The Kinetics panel's choices and last run. */
+  readonly kinetics: KineticsState;
   private jobs = new Map<string, Job>();
   private active: string | null = null;
   private saveTimer: ReturnType<typeof setTimeout> | null = null;
@@ -139,6 +147,7 @@ export class AppState {
       onCrash: (m) => { this.banner = m; this.cvStatus = 'idle'; },
       onCvProgress: (f) => { this.cvFraction = f; if (f >= 1) this.cvStatus = 'ready'; },
     });
+    this.kinetics = new KineticsState(this);
   }
 
   get selected(): Entry | null {
@@ -222,6 +231,27 @@ export class AppState {
     this.entries.push(e);
     if (!this.selectedId || this.entries.length === 1) this.selectedId = e.id;
     this.request(e, 'segment');
+    this.save(e);
+    this.persistSession();
+    return this.entries[this.entries.length - 1];
+  }
+
+  /** A fresh entry id (for an entry whose labels the worker prepares before it is added). */
+  newEntryId(): string {
+    return newId();
+  }
+
+  /**
+   * Adds an image whose labels the worker already holds under `id` (the final mosaic of a kinetics series)
+   * and measures those labels rather than segmenting the image.
+   */
+  addPrepared(id: string, name: string, bytes: Uint8Array, settings: Partial<Settings>): Entry {
+    const e = new Entry(id, name);
+    e.bytes = bytes;
+    e.order = this.entries.length ? Math.max(...this.entries.map((x) => x.order)) + 1 : 0;
+    Object.assign(e.settings, settings);
+    this.entries.push(e);
+    this.request(e, 'measure');
     this.save(e);
     this.persistSession();
     return this.entries[this.entries.length - 1];
@@ -382,19 +412,9 @@ export class AppState {
     const hadResult = e.result !== null;
     try {
       if (!e.opened || !this.bridge.isOpen(e.id)) {
-        const first = !e.opened;
         e.status = 'opening';
         e.stage = 'Reading the file';
-        const r = await this.bridge.open(e.id, e.name, e.bytes, WEB_MAX_PIXELS);
-        e.bytes = null;
-        e.opened = true;
-        e.kind = r.kind;
-        e.width = r.width;
-        e.height = r.height;
-        e.umPerPxFromFile = r.umPerPxFromFile;
-        if (r.bitmap) { e.bitmap?.close(); e.bitmap = r.bitmap; e.thumb?.close(); e.thumb = r.thumb; } else if (first) e.bitmap = null;
-        if (r.kind === 'points') e.settings.pattern = 'points';
-        e.error = null;
+        await this.openEntry(e);
       }
       if (mode === 'restore') {
         e.stage = 'Restoring the result';
@@ -446,6 +466,32 @@ export class AppState {
     e.stage = '';
     e.fraction = 1;
     e.storedCount = r.analysis.tessellation.points.length / 2;
+  }
+
+  /**
+   * Opens an entry's file in the worker (once: a second caller waits for the same opening), e.g. for the
+   * Kinetics panel, which needs the frames before their own analyses have come up in the queue.
+   */
+  openEntry(e: Entry): Promise<void> {
+    if (e.opened && this.bridge.isOpen(e.id)) return Promise.resolve();
+    if (e.opening) return e.opening;
+    const p = (async () => {
+      const first = !e.opened;
+      const r = await this.bridge.open(e.id, e.name, e.bytes, WEB_MAX_PIXELS);
+      e.bytes = null;
+      e.opened = true;
+      e.kind = r.kind;
+      e.width = r.width;
+      e.height = r.height;
+      e.umPerPxFromFile = r.umPerPxFromFile;
+      e.pages = r.pages;
+      if (r.bitmap) { e.bitmap?.close(); e.bitmap = r.bitmap; e.thumb?.close(); e.thumb = r.thumb; } else if (first) e.bitmap = null;
+      if (r.kind === 'points') e.settings.pattern = 'points';
+      e.error = null;
+    })();
+    e.opening = p;
+    void p.then(() => { e.opening = null; }, () => { e.opening = null; });
+    return p;
   }
 
   /** Computes the grain size of an entry's current result once (the Grain size panel calls it). */
