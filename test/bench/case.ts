@@ -51,7 +51,7 @@ async function exportAll(a: Analysis, errors: Record<string, string>): Promise<n
   return bytes;
 }
 
-async function runOnce(c: BenchCase, bytes: Uint8Array | null, points: Float64Array | null, errors: Record<string, string>): Promise<{ t: RunTimes; a: Analysis }> {
+async function runOnce(c: BenchCase, bytes: Uint8Array | null, points: Float64Array | null, errors: Record<string, string>): Promise<{ t: RunTimes; a: Analysis; peakBeforeExport: number }> {
   let rssMax = process.memoryUsage.rss();
   const sample = (): void => {
     const r = process.memoryUsage.rss();
@@ -78,6 +78,7 @@ async function runOnce(c: BenchCase, bytes: Uint8Array | null, points: Float64Ar
   }
   const tEnd = performance.now();
   sample();
+  const peakBeforeExport = process.resourceUsage().maxRSS * 1024;
   await exportAll(a, errors);
   const tExp = performance.now();
   sample();
@@ -85,6 +86,7 @@ async function runOnce(c: BenchCase, bytes: Uint8Array | null, points: Float64Ar
   return {
     t: { stages: { decode, ...st, export: tExp - tEnd }, analysis: tEnd - ta, total: tExp - t0, rssMax },
     a,
+    peakBeforeExport,
   };
 }
 
@@ -98,9 +100,11 @@ async function main(): Promise<void> {
   const errors: Record<string, string> = {};
   const out: RunTimes[] = [];
   let cells = 0;
+  let peakRssAnalysis = 0;
   for (let r = 0; r <= runs; r++) {
     gc();
-    const { t, a } = await runOnce(c, bytes, points, errors);
+    const { t, a, peakBeforeExport } = await runOnce(c, bytes, points, errors);
+    if (r === 0) peakRssAnalysis = peakBeforeExport;
     cells = a.tessellation.points.length / 2;
     if (r > 0) out.push(t);
   }
@@ -110,6 +114,7 @@ async function main(): Promise<void> {
     megapixels: c.kind === 'image' ? (c.synth.width * c.synth.height) / 1e6 : null,
     runs: out,
     peakRss: process.resourceUsage().maxRSS * 1024,
+    peakRssAnalysis,
     cvLoad,
     exportErrors: errors,
   };

@@ -21,6 +21,8 @@ export interface CaseResult {
   runs: RunTimes[];
   /** Peak resident set of the whole process (warm-up and runs included), bytes. */
   peakRss: number;
+  /** Peak resident set up to the end of the first analysis (decode and analysis, before any export), bytes. */
+  peakRssAnalysis: number;
   /** opencv.js load, ms (excluded from every figure). */
   cvLoad: number;
   /** Exports that could not be written (e.g. a string too long for V8), by name. */

@@ -30,6 +30,8 @@ export function prepareGrey(cv: CV, img: GreyImage, o: PrepareOptions): Uint8Arr
     const src = track(matFromGrey(cv, img));
     const f = track(new cv.Mat());
     src.convertTo(f, cv.CV_32F);
+    // The source is not needed again: its heap is reused by the Mats below.
+    src.delete();
     if (o.flattenRadiusPx > 0) {
       const sigma = o.flattenRadiusPx / 2;
       const factor = Math.max(1, Math.floor(sigma / 8));
@@ -44,8 +46,10 @@ export function prepareGrey(cv: CV, img: GreyImage, o: PrepareOptions): Uint8Arr
       const bg = track(new cv.Mat());
       cv.resize(sb, bg, new cv.Size(w, h), 0, 0, cv.INTER_LINEAR);
       const mean = cv.mean(bg)[0] as number;
-      const eps = track(new cv.Mat(h, w, cv.CV_32F, new cv.Scalar(1e-3)));
-      cv.max(bg, eps, bg);
+      // max(bg, 1e-3) in place: a full-size Mat of the constant would cost 4 bytes a pixel of heap.
+      const b = bg.data32F as Float32Array;
+      const eps = Math.fround(1e-3);
+      for (let i = 0; i < b.length; i++) if (!(b[i]! >= eps)) b[i] = eps;
       cv.divide(f, bg, f, mean);
     }
     if (o.smoothSigmaPx > 0) {

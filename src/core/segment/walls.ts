@@ -72,7 +72,8 @@ export function segmentWalls(cv: CV, img: GreyImage, settings: Settings): Segmen
   const cellMask = bright;
   if (polarity === 'light') for (let i = 0; i < cellMask.length; i++) cellMask[i] = 1 - cellMask[i]!;
 
-  const seedMask = erodeMask(cv, cellMask, w, h, s.seedErodePx);
+  // Without erosion the cell mask itself is the seed mask (it is not needed afterwards): no copy.
+  const seedMask = s.seedErodePx > 0 ? erodeMask(cv, cellMask, w, h, s.seedErodePx) : cellMask;
   const cc = connectedComponents(cv, seedMask, w, h, 4);
   const minArea = settings.minCellAreaPx < 0 ? autoMinArea(cc.areas) : settings.minCellAreaPx;
   // Markers below the minimum area are dropped: their pixels are flooded by the neighbours. The area of a
@@ -85,17 +86,17 @@ export function segmentWalls(cv: CV, img: GreyImage, settings: Settings): Segmen
     throw new NoCellsError(`No cells found: no cell interior is larger than the minimum cell area of ${minArea} px²; lower the minimum cell area or check the threshold.`);
   }
   const labels = cc.labels;
-  for (let i = 0; i < labels.length; i++) if (!keep[labels[i]!]) labels[i] = 0;
-
-  // Relief: walls high.
-  const relief = polarity === 'dark' ? invert(prepared) : prepared;
+  // Relief: walls high. Inverted in the same pass that drops the small markers.
+  const relief = polarity === 'dark' ? new Uint8Array(prepared.length) : prepared;
+  if (polarity === 'dark') {
+    for (let i = 0; i < labels.length; i++) {
+      relief[i] = 255 - prepared[i]!;
+      if (!keep[labels[i]!]) labels[i] = 0;
+    }
+  } else {
+    for (let i = 0; i < labels.length; i++) if (!keep[labels[i]!]) labels[i] = 0;
+  }
   floodFromMarkers(labels, relief, w, h);
   const count = relabelSequential(labels, cc.count);
   return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
-}
-
-function invert(a: Uint8Array): Uint8Array {
-  const out = new Uint8Array(a.length);
-  for (let i = 0; i < a.length; i++) out[i] = 255 - a[i]!;
-  return out;
 }
