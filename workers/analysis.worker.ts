@@ -98,7 +98,8 @@ async function sendResult(id: string, a: Analysis, t0: number): Promise<Analysis
   const overlay = await makeOverlay(a);
   // The worker keeps its own copy (for edits and exports); the page gets a transferred clone.
   const copy = structuredClone(a);
-  const result: AnalysisResult = { id, analysis: copy, overlay, elapsedMs: performance.now() - t0 };
+  const { randomnessData } = await import('../src/ui/plots');
+  const result: AnalysisResult = { id, analysis: copy, overlay, elapsedMs: performance.now() - t0, plotData: randomnessData(a) };
   const transfers: Transferable[] = collectTransfers(copy);
   transfers.push(overlay.cellBoxes.buffer as ArrayBuffer);
   if (overlay.outlines) transfers.push(overlay.outlines);
@@ -163,6 +164,36 @@ async function seriesOf(req: KineticsRequest): Promise<{ frames: GreyImage[]; so
 }
 
 const api: WorkerApi = {
+  async vectorLayers(id, req) {
+    const a = current.get(id);
+    if (!a || typeof OffscreenCanvas === 'undefined') return null;
+    const t = a.tessellation;
+    const f = t.field;
+    const fw = f.x1 - f.x0, fh = f.y1 - f.y0;
+    const k = Math.min(1, req.side / Math.max(fw, fh));
+    const c = new OffscreenCanvas(Math.max(1, Math.round(fw * k)), Math.max(1, Math.round(fh * k)));
+    const ctx = c.getContext('2d');
+    if (!ctx) return null;
+    const { drawVoronoi, drawDelaunay, drawCentroids } = await exporters();
+    // The same colours and order as the Bench strokes them when zoomed in.
+    ctx.setTransform(k, 0, 0, k, -f.x0 * k, -f.y0 * k);
+    const closing = { x0: 0, y0: 0, moveTo(x: number, y: number) { this.x0 = x; this.y0 = y; ctx.moveTo(x, y); }, lineTo(x: number, y: number) { ctx.lineTo(x, y); }, closePath() { ctx.lineTo(this.x0, this.y0); } };
+    ctx.lineWidth = req.lineWidth / k;
+    if (req.voronoi) { ctx.beginPath(); drawVoronoi(closing, t); ctx.strokeStyle = 'rgba(86, 180, 233, 0.95)'; ctx.stroke(); }
+    if (req.delaunay) { ctx.beginPath(); drawDelaunay(closing, t); ctx.strokeStyle = 'rgba(204, 121, 167, 0.95)'; ctx.stroke(); }
+    if (req.centroids) {
+      const n = t.points.length / 2;
+      const spacing = Math.sqrt((fw * fh) / Math.max(1, n));
+      ctx.beginPath();
+      drawCentroids(closing, t.points, Math.max(1.5, spacing * 0.08));
+      ctx.lineWidth = (req.lineWidth * 1.2) / k;
+      ctx.strokeStyle = 'rgba(213, 94, 0, 1)';
+      ctx.stroke();
+    }
+    const b = c.transferToImageBitmap();
+    return Comlink.transfer(b, [b]);
+  },
+
   async kinetics(req, onProgress) {
     await pipeline();
     const { frames, sources, times, fileUmPerPx } = await seriesOf(req);

@@ -52,6 +52,8 @@ export interface AnalysisResult {
   overlay: Overlay;
   /** Milliseconds spent in the worker. */
   elapsedMs: number;
+  /** The Randomness panel's plot series, computed in the worker so the page does not. */
+  plotData: import('../src/ui/plots').RandomnessData;
 }
 
 /** A quick look at the segmentation on a downscaled copy, while a slider moves. */
@@ -138,7 +140,24 @@ export interface KineticsFinal {
   complete: boolean;
 }
 
+/** Which vector layers to draw into a reduced bitmap for the zoomed-out Bench, and how. */
+export interface VectorLayerRequest {
+  voronoi: boolean;
+  delaunay: boolean;
+  centroids: boolean;
+  /** Long side of the bitmap (px); the field is scaled to fit it. */
+  side: number;
+  /** Line width in bitmap px. */
+  lineWidth: number;
+}
+
 export interface WorkerApi {
+  /**
+   * The Voronoi, Delaunay and centroid layers of the current result drawn into one transparent bitmap of the
+   * field, at most `side` px on its long side, so the zoomed-out Bench draws one image instead of stroking
+   * tens of thousands of cells on the page's thread.
+   */
+  vectorLayers(id: string, req: VectorLayerRequest): Promise<ImageBitmap | null>;
   /** Kinetics of an image series (frames from opened images), with thumbnails and the command line's files. */
   kinetics(req: KineticsRequest, onProgress?: ProgressFn): Promise<KineticsRun>;
   /**

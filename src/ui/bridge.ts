@@ -5,7 +5,7 @@
  */
 import * as Comlink from 'comlink';
 import type {
-  AnalysisResult, AnalyzeRequest, ExportFile, GrainResult, ExportKind, KineticsFinal, KineticsRequest, KineticsRun, OpenResult, PreviewResult, ProgressFn, WorkerApi,
+  AnalysisResult, AnalyzeRequest, ExportFile, GrainResult, ExportKind, KineticsFinal, KineticsRequest, KineticsRun, OpenResult, VectorLayerRequest, PreviewResult, ProgressFn, WorkerApi,
 } from '../../workers/protocol';
 import type { SettingsInput } from '../core/settings';
 
@@ -179,6 +179,12 @@ export class Bridge {
   async grain(id: string): Promise<GrainResult> {
     await this.ensureOpen(id);
     return this.call((api) => api.grain(id));
+  }
+
+  /** The vector layers of the current result as one reduced bitmap (null when the worker has no result for it). */
+  async vectorLayers(id: string, req: VectorLayerRequest): Promise<ImageBitmap | null> {
+    if (!this.openIn.has(id)) return null;
+    return this.call((api) => api.vectorLayers(id, req));
   }
 
   /** Kinetics of a series of opened images (each is re-opened from its stored copy after a restart). */

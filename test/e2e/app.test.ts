@@ -322,12 +322,16 @@ describe('Tessellab web app', () => {
     await page.getByRole('tab', { name: 'Scale' }).click();
     await expect.poll(() => page.getByTestId('calibration').textContent()).toMatch(/0\.5 µm per pixel/);
     await page.getByRole('tab', { name: 'Randomness' }).click();
+    // Plots are drawn as they come into view.
+    await page.getByTestId('plot-pair').scrollIntoViewIfNeeded();
     await page.waitForSelector('[data-testid=plot-pair] .main-svg', { timeout: 30_000 });
+    await page.getByTestId('verdict').scrollIntoViewIfNeeded();
     // The verdict uses the project's words, with the statistic and p-value behind it.
     await expect.poll(() => page.getByTestId('verdict').textContent()).toMatch(/more regular than random|consistent with random seeding|more irregular than random/);
     expect(await page.getByTestId('tests').textContent()).toMatch(/Clark–Evans/);
     await shot('09-reloaded-randomness');
     await page.getByTestId('plot-area').scrollIntoViewIfNeeded();
+    await page.waitForSelector('[data-testid=plot-area] .main-svg', { timeout: 30_000 });
     await shot('09b-randomness-plots');
     await page.getByTestId('plot-pair').scrollIntoViewIfNeeded();
     await shot('09c-randomness-pair');

@@ -95,3 +95,87 @@ export function niceScaleLength(maxUm: number): number {
   }
   return 10 ** k;
 }
+
+/** One tile of a TiledPath: its path and the box (image px) of everything drawn into it. */
+export interface PathTile<P> { path: P; x0: number; y0: number; x1: number; y1: number }
+
+/**
+ * A sink that splits drawing into a grid of paths by where each subpath starts, and keeps each tile's box,
+ * so the Bench strokes only the tiles in view and can build them a slice at a time. Subpaths are closed
+ * with a line back to their first point (see LineClosingSink).
+ */
+export class TiledSink<P extends { moveTo(x: number, y: number): void; lineTo(x: number, y: number): void }> implements PathSink {
+  readonly tiles: (PathTile<P> | null)[];
+  private cur: PathTile<P> | null = null;
+  private sx = 0;
+  private sy = 0;
+
+  /**
+   * @param field the rectangle (image px) the grid covers; points outside go to the nearest tile
+   * @param n tiles per side
+   * @param make creates an empty path
+   */
+  constructor(private readonly field: Rect, private readonly n: number, private readonly make: () => P) {
+    this.tiles = new Array<PathTile<P> | null>(n * n).fill(null);
+  }
+
+  moveTo(x: number, y: number): void {
+    const f = this.field;
+    const gx = Math.min(this.n - 1, Math.max(0, Math.floor(((x - f.x0) / Math.max(1e-9, f.x1 - f.x0)) * this.n)));
+    const gy = Math.min(this.n - 1, Math.max(0, Math.floor(((y - f.y0) / Math.max(1e-9, f.y1 - f.y0)) * this.n)));
+    let t = this.tiles[gy * this.n + gx];
+    if (!t) { t = { path: this.make(), x0: x, y0: y, x1: x, y1: y }; this.tiles[gy * this.n + gx] = t; }
+    this.cur = t;
+    this.sx = x;
+    this.sy = y;
+    t.path.moveTo(x, y);
+    this.grow(x, y);
+  }
+
+  lineTo(x: number, y: number): void {
+    this.cur?.path.lineTo(x, y);
+    this.grow(x, y);
+  }
+
+  closePath(): void {
+    this.lineTo(this.sx, this.sy);
+  }
+
+  private grow(x: number, y: number): void {
+    const t = this.cur;
+    if (!t) return;
+    if (x < t.x0) t.x0 = x; else if (x > t.x1) t.x1 = x;
+    if (y < t.y0) t.y0 = y; else if (y > t.y1) t.y1 = y;
+  }
+
+  /** The tiles that meet the rectangle [x0, x1] x [y0, y1] (image px), widened by `pad`. */
+  visible(x0: number, y0: number, x1: number, y1: number, pad = 0): PathTile<P>[] {
+    const out: PathTile<P>[] = [];
+    for (const t of this.tiles) if (t && t.x1 + pad >= x0 && t.x0 - pad <= x1 && t.y1 + pad >= y0 && t.y0 - pad <= y1) out.push(t);
+    return out;
+  }
+}
+
+/** Delaunay edges of triangles [from, to) (triangle indices), each edge once over all calls that share `done`. */
+export function drawDelaunayRange(sink: PathSink, t: Tessellation, from: number, to: number, done: Set<number>): void {
+  const tri = t.triangles;
+  const p = t.points;
+  const n = p.length / 2;
+  for (let i = 3 * from; i < 3 * to && i < tri.length; i += 3) {
+    for (let k = 0; k < 3; k++) {
+      const a = tri[i + k], b = tri[i + ((k + 1) % 3)];
+      const key = a < b ? a * n + b : b * n + a;
+      if (done.has(key)) continue;
+      done.add(key);
+      sink.moveTo(p[2 * a], p[2 * a + 1]);
+      sink.lineTo(p[2 * b], p[2 * b + 1]);
+    }
+  }
+}
+
+/** Lets the browser run other work (input, rendering) before the caller goes on. */
+export function yieldToPage(): Promise<void> {
+  const s = (globalThis as { scheduler?: { yield?: () => Promise<void> } }).scheduler;
+  if (s?.yield) return s.yield();
+  return new Promise((r) => setTimeout(r, 0));
+}
