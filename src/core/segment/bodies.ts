@@ -11,7 +11,8 @@
  *    (1 − splitSensitivity)·R/2, R the median body radius (src/core/segment/peaks.ts), then a watershed on
  *    the inverted distance inside the body mask (Beucher & Lantuéjoul 1979; trade).
  */
-import { connectedComponents, distanceTransform, otsuThreshold, prepareGrey, thresholdMask } from '../cv/kernels';
+import { connectedComponents, distanceTransform, prepareGrey } from '../cv/kernels';
+import { thresholdPrepared } from './threshold';
 import type { CV } from '../cv/index';
 import { NoCellsError } from '../errors';
 import type { Settings } from '../settings';
@@ -25,20 +26,7 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
   const { width: w, height: h } = img;
   const s = settings.bodies;
   const prepared = prepareGrey(cv, img, { flattenRadiusPx: 0, smoothSigmaPx: s.smoothSigmaPx });
-  let threshold: number;
-  let mask: Uint8Array;
-  if (s.threshold === 'adaptive') {
-    threshold = -1;
-    mask = thresholdMask(cv, prepared, w, h, { kind: 'adaptive', blockPx: s.adaptiveBlockPx });
-  } else {
-    threshold = s.threshold === 'manual' ? s.manualThreshold : otsuThreshold(cv, prepared, w, h);
-    mask = thresholdMask(cv, prepared, w, h, { kind: 'global', level: threshold });
-  }
-  let total = 0;
-  for (let i = 0; i < mask.length; i++) total += mask[i]!;
-  if (total === 0 || total === mask.length) {
-    throw new NoCellsError('No bodies found: the image is uniform (nothing to threshold); check that this is the right image, or set a manual threshold.');
-  }
+  const { bright: mask, level: threshold } = thresholdPrepared(cv, prepared, w, h, s, 'bodies');
   let polarity = s.polarity;
   if (polarity === 'auto') {
     // The background is one large connected region around separate objects, so the class holding the

@@ -9,7 +9,8 @@
  * 4. Markers grow back over the walls by priority flooding on the wall relief (marker watershed), so
  *    the cells tile the field and every pair of touching cells shares a boundary.
  */
-import { connectedComponents, erodeMask, otsuThreshold, prepareGrey, thresholdMask } from '../cv/kernels';
+import { connectedComponents, erodeMask, prepareGrey } from '../cv/kernels';
+import { thresholdPrepared } from './threshold';
 import type { CV } from '../cv/index';
 import { NoCellsError } from '../errors';
 import type { Settings } from '../settings';
@@ -53,20 +54,7 @@ export function segmentWalls(cv: CV, img: GreyImage, settings: Settings): Segmen
   const flatten = s.flattenRadiusPx < 0 ? autoFlattenRadius(w, h) : s.flattenRadiusPx;
   const prepared = prepareGrey(cv, img, { flattenRadiusPx: flatten, smoothSigmaPx: s.smoothSigmaPx });
 
-  let threshold: number;
-  let bright: Uint8Array;
-  if (s.threshold === 'adaptive') {
-    threshold = -1;
-    bright = thresholdMask(cv, prepared, w, h, { kind: 'adaptive', blockPx: s.adaptiveBlockPx });
-  } else {
-    threshold = s.threshold === 'manual' ? s.manualThreshold : otsuThreshold(cv, prepared, w, h);
-    bright = thresholdMask(cv, prepared, w, h, { kind: 'global', level: threshold });
-  }
-  let nBright = 0;
-  for (let i = 0; i < bright.length; i++) nBright += bright[i]!;
-  if (nBright === 0 || nBright === bright.length) {
-    throw new NoCellsError('No cells found: the image is uniform (nothing to threshold); check that this is the right image, or set a manual threshold.');
-  }
+  const { bright, brightCount: nBright, level: threshold } = thresholdPrepared(cv, prepared, w, h, s, 'cells');
   const polarity = s.polarity === 'auto' ? (nBright < bright.length / 2 ? 'light' : 'dark') : s.polarity;
   // Cells are the non-wall class.
   const cellMask = bright;
