@@ -46,10 +46,14 @@ export function prepareGrey(cv: CV, img: GreyImage, o: PrepareOptions): Uint8Arr
       const bg = track(new cv.Mat());
       cv.resize(sb, bg, new cv.Size(w, h), 0, 0, cv.INTER_LINEAR);
       const mean = cv.mean(bg)[0] as number;
-      // max(bg, 1e-3) in place: a full-size Mat of the constant would cost 4 bytes a pixel of heap.
-      const b = bg.data32F as Float32Array;
-      const eps = Math.fround(1e-3);
-      for (let i = 0; i < b.length; i++) if (!(b[i]! >= eps)) b[i] = eps;
+      // max(bg, 1e-3) in place (a full-size Mat of the constant would cost 4 bytes a pixel of heap), and
+      // only when needed: bilinear upscaling never goes below the small image's minimum (less a rounding
+      // of a few parts in 10^7), so at 2e-3 or more no pixel of bg can be under 1e-3.
+      if ((cv.minMaxLoc(sb) as { minVal: number }).minVal < 2e-3) {
+        const b = bg.data32F as Float32Array;
+        const eps = Math.fround(1e-3);
+        for (let i = 0; i < b.length; i++) if (!(b[i]! >= eps)) b[i] = eps;
+      }
       cv.divide(f, bg, f, mean);
     }
     if (o.smoothSigmaPx > 0) {
