@@ -20,7 +20,6 @@ export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: 
   // The pixels still to be taken as a bitmap (n/8 bytes): the neighbour tests, which are most of the work,
   // then stay in cache on large images instead of missing it in the label image.
   const free = new Int32Array((n + 31) >>> 5);
-  for (let p = 0; p < n; p++) if (labels[p] === 0 && (allowed === undefined || allowed[p] !== 0)) free[p >>> 5]! |= 1 << (p & 31);
   // One FIFO per relief level, each a contiguous growable array of (pixel, label) pairs: pops read in
   // order and never go back to the label image.
   const queues: Int32Array[] = [];
@@ -53,12 +52,13 @@ export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: 
     q[tail[l]!++] = lab;
   };
 
-  // Seed the queues with marker pixels that border unlabelled ones, in raster order.
+  // Seed the queues with marker pixels that border unlabelled ones, in raster order; mark the free pixels.
   for (let y = 0; y < height; y++) {
     const row = y * width;
     for (let x = 0; x < width; x++) {
       const p = row + x;
       const lab = labels[p]!;
+      if (lab === 0 && (allowed === undefined || allowed[p] !== 0)) free[p >>> 5]! |= 1 << (p & 31);
       if (lab <= 0) continue;
       if (
         (x > 0 && labels[p - 1] === 0) ||
