@@ -69,8 +69,10 @@ export function dynamicPeaks(dist: Float32Array, width: number, height: number, 
         const a = find(r);
         const b = find(p);
         if (a === b) continue;
-        // The root with the lower peak is the younger one.
-        const [old, young] = dist[peak[a]!]! >= dist[peak[b]!]! ? [a, b] : [b, a];
+        // The root with the lower peak is the younger one (no pair array: this runs for most pixels).
+        const aOlder = dist[peak[a]!]! >= dist[peak[b]!]!;
+        const old = aOlder ? a : b;
+        const young = aOlder ? b : a;
         if (alive[young] && dist[peak[young]!]! - level < h) alive[young] = 0;
         // A young peak that stands at least h above the saddle stays a marker.
         if (alive[young]) recorded.push(peak[young]!);
