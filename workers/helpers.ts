@@ -143,9 +143,5 @@ export function collectTransfers(value: unknown): ArrayBuffer[] {
   return [...seen];
 }
 
-/** The file name without its folder and last extension: 'a/b/grains.tif' -> 'grains'. */
-export function baseName(name: string): string {
-  const file = name.split(/[\\/]/).pop() ?? name;
-  const dot = file.lastIndexOf('.');
-  return dot > 0 ? file.slice(0, dot) : file;
-}
+/** The file name without its folder and last extension: 'a/b/grains.tif' -> 'grains' (the exports' stem). */
+export { fileStem as baseName } from '../src/core/export/files';

@@ -1,5 +1,9 @@
 /**
  * Invariants of the pipeline (the geometric checks of DESIGN.md): tiling, rotation, calibration, Voronoi areas.
+ * Sources: a tessellation's cells partition its window, so their areas sum to the window's (derived from
+ * the definition of a tessellation); lengths scale with the unit and areas with its square (derived:
+ * dimensional analysis); pixel-grid measurements are unchanged by a quarter turn of the grid (derived:
+ * the 2x2 window weights and run sums are symmetric under it).
  */
 import { describe, expect, it } from 'vitest';
 import { analyze } from '../../src/core/analyze';
