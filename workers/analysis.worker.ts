@@ -14,6 +14,8 @@ import type { GreyImage, LabelImage } from '../src/core/types';
 import { resolveSettings, type SettingsInput } from '../src/core/settings';
 import { applyEdits } from '../src/core/edit/labels';
 import { openSessionDb } from '../src/ui/db';
+import type { ClosablePool } from '../src/core/reference/workerPool';
+import { createBrowserReferencePool } from './referencePool';
 import { displayRgba, outlineRgba, cellBoxes, downscaleGrey, scaleSettings, collectTransfers, baseName } from './helpers';
 
 type AnalyzeModule = typeof import('../src/core/analyze');
@@ -35,6 +37,13 @@ function pipeline(onProgress?: ProgressFn): Promise<AnalyzeModule> {
     analyzeMod.catch(() => { analyzeMod = null; });
   }
   return analyzeMod;
+}
+
+let pool: ClosablePool | null = null;
+
+/** The reference's web workers, started on the first analysis that draws a reference. */
+function referencePool(): ClosablePool {
+  return (pool ??= createBrowserReferencePool());
 }
 
 function exporters(): Promise<typeof import('../src/core/export/index')> {
@@ -284,7 +293,7 @@ const api: WorkerApi = {
     controllers.set(req.id, ctl);
     try {
       const core = await pipeline(onProgress);
-      const opts = { onProgress: (s: string, f: number) => onProgress?.(s, f), signal: ctl.signal };
+      const opts = { onProgress: (s: string, f: number) => onProgress?.(s, f), signal: ctl.signal, referencePool: referencePool() };
       let base = bases.get(req.id) ?? null;
       if (req.reuseLabels && !base) {
         const db = await openSessionDb();

@@ -5,11 +5,13 @@
  */
 import { cellOutlines, type Polygons } from './cv/contours';
 import { loadCv } from './cv/index';
-import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TessellabError, TooFewCellsError } from './errors';
+import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TessellabError, TooFewCellsError, describeError } from './errors';
 import { grainSize, grainSizeSummary } from './grain/index';
 import type { GrainSizeResult } from './grain/types';
 import { assignEvents, eventsDispersion } from './stats/events';
-import { randomness, type RandomnessResult } from './stats/randomness';
+import { randomness, referenceOptionsFor, type RandomnessResult } from './stats/randomness';
+import type { Reference } from './reference/montecarlo';
+import { startReference, type ReferencePool } from './reference/parallel';
 import type { Analysis, Summary } from './analysis.types';
 import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
 import { cellSums, type CellSums } from './measure/kernel';
@@ -31,6 +33,11 @@ export interface AnalyzeOptions {
   signal?: AbortSignal;
   /** Event points (interleaved x, y in px, image coordinates) to count per cell. */
   events?: Float64Array;
+  /**
+   * Threads that draw the random-seeding reference while the rest of the analysis runs (the command line's
+   * worker_threads, the app's web workers). Without one it is drawn on this thread; the result is the same.
+   */
+  referencePool?: ReferencePool | null;
 }
 
 /** Segmentation details kept with an analysis (for the Detect panel and the summary). */
@@ -130,7 +137,26 @@ export async function reanalyzeLabels(
   return measureLabels(labels, image, field, imageSize.width, imageSize.height, settings, opts, null);
 }
 
-function measureLabels(
+/**
+ * Starts the random-seeding reference for an observation of `cells` cells in `field` (null when the
+ * settings ask for none). Its result() never throws but for cancellation: a reference that cannot be
+ * drawn becomes `{ error }`, which the randomness report shows as a warning beside what was computed.
+ */
+function startReferenceFor(settings: Settings, cells: number, field: Rect, minCellAreaPx: number | undefined, opts: AnalyzeOptions) {
+  const refOpts = referenceOptionsFor(settings, cells, field, minCellAreaPx);
+  if (!refOpts) return null;
+  const job = startReference(refOpts, opts.referencePool);
+  return async (): Promise<{ reference?: Reference; referenceError?: string }> => {
+    try {
+      return { reference: await job.result(opts.signal) };
+    } catch (e) {
+      if (e instanceof CancelledError) throw e;
+      return { referenceError: describeError(e) };
+    }
+  };
+}
+
+async function measureLabels(
   labels: LabelImage,
   image: GreyImage | null,
   field: Rect,
@@ -139,12 +165,14 @@ function measureLabels(
   settings: Settings,
   opts: AnalyzeOptions,
   segment: SegmentInfo | null,
-): Analysis {
+): Promise<Analysis> {
   const progress = opts.onProgress ?? (() => {});
   progress('measure', 0);
   if (labels.count < 3) {
     throw new TooFewCellsError(`Only ${labels.count} cell${labels.count === 1 ? '' : 's'} found; the tessellation needs at least 3. Check the pattern kind and threshold, or use a larger field.`);
   }
+  // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile.
+  const reference = startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts);
   const sums = cellSums(labels, image?.data);
   const n = sums.count;
   const pts = new Float64Array(2 * n);
@@ -181,10 +209,22 @@ function measureLabels(
   };
   const columns = measureColumns(ctx, settings.pattern);
   check(opts.signal);
+  // Grain size before the statistics, so that it runs while the pool is drawing the reference.
+  let grain: GrainSizeResult | null = null;
+  let grainSummary: Record<string, unknown> | null = null;
+  if (settings.pattern === 'walls') {
+    progress('grain size', 0);
+    const g = rateGrainSize(labels, field, settings);
+    grain = g.result;
+    grainSummary = g.summary;
+    progress('grain size', 1);
+    check(opts.signal);
+  }
   progress('statistics', 0);
   const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
   const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
   const rnd = randomness({
+    ...(reference ? await reference() : {}),
     tessellation: tess,
     sides,
     area: sums.n,
@@ -197,14 +237,8 @@ function measureLabels(
   });
   addRandomness(summary, rnd, settings.umPerPx);
   if (events) summary.events = eventsSummary(events, sums.n, sums.edge);
+  if (grainSummary) summary.grainSize = grainSummary;
   progress('statistics', 1);
-  let grain: GrainSizeResult | null = null;
-  if (settings.pattern === 'walls') {
-    progress('grain size', 0);
-    const g = rateGrainSize(labels, field, settings);
-    grain = g.result;
-    summary.grainSize = g.summary;
-  }
   return { width, height, field, settings, labels, columns, tessellation: tess, summary, grain, randomness: rnd };
 }
 
@@ -289,7 +323,7 @@ function addRandomness(summary: Summary, r: RandomnessResult, umPerPx: number | 
   summary.voronoiLikeness = r.voronoiLikeness;
 }
 
-function analyzePoints(points: Float64Array, width: number, height: number, settings: Settings, opts: AnalyzeOptions): Analysis {
+async function analyzePoints(points: Float64Array, width: number, height: number, settings: Settings, opts: AnalyzeOptions): Promise<Analysis> {
   const progress = opts.onProgress ?? (() => {});
   let pts = points;
   if (settings.points.units === 'um') {
@@ -300,6 +334,7 @@ function analyzePoints(points: Float64Array, width: number, height: number, sett
   const field = settings.field ? { ...settings.field } : { x0: 0, y0: 0, x1: width, y1: height };
   const n = pts.length / 2;
   if (n < 3) throw new TooFewCellsError(`Only ${n} point${n === 1 ? '' : 's'}; the tessellation needs at least 3.`);
+  const reference = startReferenceFor(settings, n, field, undefined, opts);
   progress('tessellate', 0);
   const tess = tessellate(pts, field);
   progress('tessellate', 1);
@@ -326,7 +361,7 @@ function analyzePoints(points: Float64Array, width: number, height: number, sett
   const columns = measureColumns(ctx, 'points');
   progress('statistics', 0);
   const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
-  const rnd = randomness({ tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
+  const rnd = randomness({ ...(reference ? await reference() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
   addRandomness(summary, rnd, settings.umPerPx);
   if (events) summary.events = eventsSummary(events, tess.area, tess.edge);
   progress('statistics', 1);

@@ -10,7 +10,11 @@ import { loadCv } from '../../src/core/cv/index';
 import { cellsCsv, cellsGeoJson, labelsPng, overlaySvg, summaryJson } from '../../src/core/export/index';
 import { decodeImage } from '../../src/core/image/decode';
 import { clearReferenceCache } from '../../src/core/reference/montecarlo';
+import { sharedReferencePool } from '../../src/node/referencePool';
 import { pointSet, type BenchCase } from './inputs';
+
+/** The command line's reference threads, as `tessellab analyze` uses them. */
+const referencePool = sharedReferencePool();
 import type { CaseResult, RunTimes, Stage } from './stages';
 
 const gc = (globalThis as { gc?: () => void }).gc ?? (() => {});
@@ -24,13 +28,15 @@ function stageTimes(events: [string, number, number][], end: number): Omit<Recor
   const stat0 = first('statistics', 0);
   const stat1 = last('statistics', 1);
   const grain0 = first('grain size', 0);
+  const grain1 = last('grain size', 1);
+  // Grain size (walls) runs between the column registry and the statistics, while the reference pool draws.
   return {
     segment: span(first('segment', 0), last('segment', 1)),
     // Cell sums before the tessellation, the column registry after it.
-    measure: span(first('measure', 0), last('measure', 1)) + span(tess1, stat0),
+    measure: span(first('measure', 0), last('measure', 1)) + span(tess1, grain0 ?? stat0),
     tessellate: span(first('tessellate', 0), tess1),
-    statistics: span(stat0, stat1),
-    grain: span(grain0 ?? stat1, end),
+    statistics: span(stat0, stat1) + span(stat1, end),
+    grain: span(grain0, grain1),
   };
 }
 
@@ -72,10 +78,10 @@ async function runOnce(c: BenchCase, bytes: Uint8Array | null, points: Float64Ar
     decode = performance.now() - t0;
     sample();
     ta = performance.now();
-    a = await analyze({ kind: 'image', image: img }, c.settings, { onProgress });
+    a = await analyze({ kind: 'image', image: img }, c.settings, { onProgress, referencePool });
   } else {
     ta = performance.now();
-    a = await analyze({ kind: 'points', points: points!, width: c.side, height: c.side }, c.settings, { onProgress });
+    a = await analyze({ kind: 'points', points: points!, width: c.side, height: c.side }, c.settings, { onProgress, referencePool });
   }
   const tEnd = performance.now();
   sample();

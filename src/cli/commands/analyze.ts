@@ -15,6 +15,7 @@ import { resolveSettings, type SettingsInput } from '../../core/settings';
 import type { Command } from '../main';
 import { parseArgs, parseSize, positiveNumber } from '../args';
 import { ensureOutDir, writeOut } from '../files';
+import { sharedReferencePool } from '../../node/referencePool';
 
 const USAGE =
   'tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json] [--events FILE.csv] [--size WxH (points)]';
@@ -52,6 +53,8 @@ export const command: Command = {
       events = parsePointsCsv(await readText(f), { name: basename(f) }).points;
     }
     const files = a.positional;
+    // Worker threads draw each image's random-seeding reference while the rest of its analysis runs.
+    const referencePool = sharedReferencePool();
     const rows: { name: string; summary: Record<string, unknown> | null; error?: string }[] = [];
     let failed = 0;
     let lastSettings = base;
@@ -66,14 +69,14 @@ export const command: Command = {
           const pts = parsePointsCsv(await readText(file), { name });
           const size = a.options.has('size') ? parseSize(a.options.get('size')!) : boundsOf(pts.points);
           const settings = { ...base, umPerPx: userUm };
-          analysis = await analyze({ kind: 'points', points: pts.points, width: size[0], height: size[1], name }, settings, { events, onProgress: (s, f) => f === 0 && say(s) });
+          analysis = await analyze({ kind: 'points', points: pts.points, width: size[0], height: size[1], name }, settings, { events, referencePool, onProgress: (s, f) => f === 0 && say(s) });
         } else {
           const bytes = await readBytes(file);
           const img = await decodeImage(bytes, { name });
           if (img.pages.length > 1) process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${img.pages.length} pages; analysing the first (use kinetics for a series)\n`);
           const px = resolvePixelSize(userUm, img.umPerPx);
           const settings = { ...base, umPerPx: px.umPerPx };
-          analysis = await analyze({ kind: 'image', image: img.pages[0]!, name }, settings, { events, onProgress: (s, f) => f === 0 && say(s) });
+          analysis = await analyze({ kind: 'image', image: img.pages[0]!, name }, settings, { events, referencePool, onProgress: (s, f) => f === 0 && say(s) });
           (analysis.summary as Record<string, unknown>).calibration = { source: px.source };
         }
         lastSettings = analysis.settings;

@@ -6,7 +6,9 @@
  */
 import { SettingsError } from '../../core/errors';
 import { publishedConstants } from '../../core/reference/constants';
-import { referenceMonteCarlo, referenceSummary, type ReferenceLayout } from '../../core/reference/montecarlo';
+import { referenceSummary, type ReferenceLayout } from '../../core/reference/montecarlo';
+import { startReference } from '../../core/reference/parallel';
+import { sharedReferencePool } from '../../node/referencePool';
 import type { EdgeRule } from '../../core/settings';
 import type { Command } from '../main';
 import { parseArgs, parseSize, positiveInt } from '../args';
@@ -39,7 +41,7 @@ export const command: Command = {
     if (cells < 3) throw new SettingsError(`--cells must be at least 3; got ${cells}.`);
 
     const t0 = performance.now();
-    const ref = referenceMonteCarlo({ cells, field: { x0: 0, y0: 0, x1: width, y1: height }, replicates, seed, edgeRule, minCellAreaPx, layout });
+    const ref = await startReference({ cells, field: { x0: 0, y0: 0, x1: width, y1: height }, replicates, seed, edgeRule, minCellAreaPx, layout }, sharedReferencePool()).result();
     const ms = performance.now() - t0;
     const out = { reference: referenceSummary(ref, { includeValues: a.flags.has('values') }), published: publishedConstants(), elapsedMs: Math.round(ms) };
     for (const w of ref.warnings) process.stderr.write(`tessellab reference: ${w}\n`);

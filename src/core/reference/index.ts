@@ -1,5 +1,9 @@
 /** The random-seeding reference: published constants and the Monte Carlo reference in the same field. */
 export * from './constants';
-export { referenceMonteCarlo, referenceSummary, clearReferenceCache, REFERENCE_STATISTICS, REFERENCE_CACHE_SIZE } from './montecarlo';
-export type { Reference, ReferenceOptions, ReferenceLayout, ReferenceStatistic, Envelope } from './montecarlo';
+export {
+  referenceMonteCarlo, referenceSummary, clearReferenceCache, planReference, drawReplicates, combineReplicates, batchBuffers,
+  REFERENCE_STATISTICS, REFERENCE_CACHE_SIZE,
+} from './montecarlo';
+export type { Reference, ReferenceOptions, ReferenceLayout, ReferenceStatistic, ReferencePlan, ReplicateBatch, Envelope } from './montecarlo';
+export { startReference, chunkSize, type ReferencePool, type ReferenceJob } from './parallel';
 export { windowCells } from './window';

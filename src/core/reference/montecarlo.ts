@@ -147,25 +147,65 @@ export interface Reference {
  */
 export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
   if (opts.cache === false) return draw(opts);
+  return cachedReferenceFor(opts) ?? rememberReference(opts, draw(opts));
+}
+
+/** The cached reference for these options (reported to onProgress as done), or null. */
+export function cachedReferenceFor(opts: ReferenceOptions): Reference | null {
   const key = cacheKey(opts);
   const hit = cache.get(key);
-  if (hit) {
-    cache.delete(key);
-    cache.set(key, hit);
-    opts.onProgress?.(1);
-    return hit;
-  }
-  const ref = draw(opts);
+  if (!hit) return null;
+  cache.delete(key);
+  cache.set(key, hit);
+  opts.onProgress?.(1);
+  return hit;
+}
+
+/** Freezes a reference drawn for these options and keeps it in the cache; returns it. */
+export function rememberReference(opts: ReferenceOptions, ref: Reference): Reference {
   Object.freeze(ref.options.field);
   Object.freeze(ref.options);
   Object.freeze(ref.warnings);
   Object.freeze(ref);
-  cache.set(key, ref);
+  cache.set(cacheKey(opts), ref);
   while (cache.size > REFERENCE_CACHE_SIZE) cache.delete(cache.keys().next().value!);
   return ref;
 }
 
 function draw(opts: ReferenceOptions): Reference {
+  const plan = planReference(opts);
+  const batch = drawReplicates(plan, 0, plan.replicates, (done) => opts.onProgress?.(done / plan.replicates));
+  return combineReplicates(plan, [batch]);
+}
+
+/**
+ * Everything a reference's replicates depend on, checked and worked out once: a plain object of numbers
+ * and typed arrays, so that it can be posted to a worker that draws some of the replicates.
+ */
+export interface ReferencePlan {
+  cells: number;
+  field: Rect;
+  replicates: number;
+  seed: number;
+  edgeRule: EdgeRule;
+  minArea: number;
+  layout: ReferenceLayout;
+  density: number;
+  /** Seeds per replicate, drawn uniformly in `region` (the field, plus the guard band for 'window'). */
+  seeds: number;
+  region: Rect;
+  /** L-function radii (px). */
+  radii: Float64Array;
+  /** Normalised areas at which the ECDF is tabulated. */
+  areaGrid: Float64Array;
+  warnings: string[];
+}
+
+/**
+ * Checks the options and works out the density, seed count, guard region and curve grids.
+ * @throws SettingsError on a bad count, field, replicate number, edge rule or density; TooFewCellsError under 3 cells
+ */
+export function planReference(opts: ReferenceOptions): ReferencePlan {
   const { cells, field, replicates: R, seed, edgeRule } = opts;
   const minArea = opts.minCellAreaPx && opts.minCellAreaPx > 0 ? opts.minCellAreaPx : 0;
   const layout: ReferenceLayout = opts.layout ?? 'seeds';
@@ -193,35 +233,90 @@ function draw(opts: ReferenceOptions): Reference {
   const seedDensity = density / Math.max(0.05, 1 - hidden);
   const margin = layout === 'window' ? 3 / Math.sqrt(seedDensity) : 0;
   const region: Rect = { x0: field.x0 - margin, y0: field.y0 - margin, x1: field.x1 + margin, y1: field.y1 + margin };
-  const RW = region.x1 - region.x0;
-  const RH = region.y1 - region.y0;
-  const seeds = Math.max(3, Math.round(seedDensity * RW * RH));
-  const radii = lRadii(cells, field);
-  const nr = radii.length;
+  const seeds = Math.max(3, Math.round(seedDensity * (region.x1 - region.x0) * (region.y1 - region.y0)));
   const G = Math.round(AREA_GRID_MAX / AREA_GRID_STEP) + 1;
   const areaGrid = new Float64Array(G);
   for (let k = 0; k < G; k++) areaGrid[k] = k * AREA_GRID_STEP;
+  return {
+    cells, field: { x0: field.x0, y0: field.y0, x1: field.x1, y1: field.y1 }, replicates: R, seed, edgeRule, minArea, layout, density, seeds, region,
+    radii: lRadii(cells, field), areaGrid, warnings,
+  };
+}
 
-  const values = {} as Record<ReferenceStatistic, Float64Array>;
-  for (const name of REFERENCE_STATISTICS) values[name] = new Float64Array(R).fill(Number.NaN);
-  const sidesCurves = new Float64Array(R * (MAX_SIDES + 1)).fill(Number.NaN);
-  const ecdfCurves = new Float64Array(R * G).fill(Number.NaN);
-  const histCurves = new Float64Array(R * (G - 1)).fill(Number.NaN);
-  const lCurves = new Float64Array(R * nr).fill(Number.NaN);
-  const areaSamples: (AreaStats | null)[] = new Array(R).fill(null);
-  const pooled = new AreaCdfTable();
-  const lewisW = new Float64Array(MAX_SIDES + 1);
-  const lewisV = new Float64Array(MAX_SIDES + 1);
-  const aboavW = new Float64Array(MAX_SIDES + 1);
-  const aboavV = new Float64Array(MAX_SIDES + 1);
-  let interiorTotal = 0;
+const NSTAT = REFERENCE_STATISTICS.length;
+const STAT = Object.fromEntries(REFERENCE_STATISTICS.map((name, i) => [name, i])) as Record<ReferenceStatistic, number>;
+const NS = MAX_SIDES + 1;
+
+/**
+ * What replicates r0 .. r1−1 of a plan gave, row by row (row j is replicate r0 + j): typed arrays only, so
+ * that a batch drawn in a worker is transferred, not copied. NaN where a replicate could not give a value.
+ */
+export interface ReplicateBatch {
+  r0: number;
+  r1: number;
+  /** REFERENCE_STATISTICS values, NSTAT per row, before the second pass (ksDistance, sidesChiSquare, lMaxDeviation are NaN). */
+  values: Float64Array;
+  /** p(n), n = 0..MAX_SIDES, per row. */
+  sides: Float64Array;
+  /** Normalised-area ECDF at plan.areaGrid, per row. */
+  ecdf: Float64Array;
+  /** L(r) − r at plan.radii, per row. */
+  l: Float64Array;
+  /** Row j's sorted normalised areas and cumulative weight fractions are [areaOffsets[j], areaOffsets[j + 1]). */
+  areaOffsets: Int32Array;
+  areaSorted: Float64Array;
+  areaCumulative: Float64Array;
+  /** Sum of the cells' weights in row j (0 when the replicate had no interior cell). */
+  weightSum: Float64Array;
+  /** Lewis and Aboav–Weaire class counts and count × class mean, NS per row. */
+  lewisW: Float64Array;
+  lewisV: Float64Array;
+  aboavW: Float64Array;
+  aboavV: Float64Array;
+}
+
+/** The transferable buffers of a batch (for postMessage). */
+export function batchBuffers(b: ReplicateBatch): ArrayBuffer[] {
+  return [b.values, b.sides, b.ecdf, b.l, b.areaOffsets, b.areaSorted, b.areaCumulative, b.weightSum, b.lewisW, b.lewisV, b.aboavW, b.aboavV].map(
+    (a) => a.buffer as ArrayBuffer,
+  );
+}
+
+/**
+ * Draws replicates r0 .. r1−1 of a plan. Replicate r's seeds come from the generator seeded with
+ * subSeed(seed, r) alone, so any split of the replicates into batches gives the same rows.
+ * @param onReplicate called after each replicate with the number done in this batch
+ */
+export function drawReplicates(plan: ReferencePlan, r0: number, r1: number, onReplicate?: (done: number) => void): ReplicateBatch {
+  const { field, edgeRule, minArea, layout, region, radii, areaGrid } = plan;
+  const count = r1 - r0;
+  const nr = radii.length;
+  const G = areaGrid.length;
+  const values = new Float64Array(count * NSTAT).fill(Number.NaN);
+  const sides = new Float64Array(count * NS).fill(Number.NaN);
+  const ecdf = new Float64Array(count * G).fill(Number.NaN);
+  const l = new Float64Array(count * nr).fill(Number.NaN);
+  const areaOffsets = new Int32Array(count + 1);
+  const sortedParts: Float64Array[] = [];
+  const cumulativeParts: Float64Array[] = [];
+  const weightSum = new Float64Array(count);
+  const lewisW = new Float64Array(count * NS);
+  const lewisV = new Float64Array(count * NS);
+  const aboavW = new Float64Array(count * NS);
+  const aboavV = new Float64Array(count * NS);
+  const RW = region.x1 - region.x0;
+  const RH = region.y1 - region.y0;
+  const seeds = plan.seeds;
   const sqrtLambda = Math.sqrt(seeds / (RW * RH));
+  let areaLength = 0;
 
   // One engine and one seed array for all replicates: same seed count, so nothing is reallocated.
   const engine = new Tessellator(true);
   const pts = new Float64Array(2 * seeds);
-  for (let r = 0; r < R; r++) {
-    const rng = mulberry32(subSeed(seed, r));
+  for (let j = 0; j < count; j++) {
+    const r = r0 + j;
+    const v = j * NSTAT;
+    const rng = mulberry32(subSeed(plan.seed, r));
     // Uniform seeds in the region, drawn x then y as synth/seeds uniformPoints draws them.
     for (let i = 0; i < seeds; i++) {
       pts[2 * i] = rng() * RW + region.x0;
@@ -230,44 +325,109 @@ function draw(opts: ReferenceOptions): Reference {
     const t = layout === 'window' ? windowCellsRetained(engine.run(pts, region, 'retained'), engine, field) : engine.run(pts, field, 'cells');
     const sample = cellSample(t.area, t.edge, t.bbox, field, edgeRule, minArea);
     const m = sample.index.length;
-    values.interiorCells[r] = m;
-    interiorTotal += m;
+    values[v + STAT.interiorCells] = m;
     const sp = layout === 'seeds' ? pts : visibleCentroids(t.centroid, t.area, minArea);
     const ce = layout === 'seeds' ? clarkEvans(sp, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }) : clarkEvans(sp, field);
-    values.clarkEvansR[r] = ce.Rcorrected;
-    const L = lFunction(sp, field, radii);
-    lCurves.set(L, r * nr);
+    values[v + STAT.clarkEvansR] = ce.Rcorrected;
+    l.set(lFunction(sp, field, radii), j * nr);
+    areaOffsets[j + 1] = areaLength;
     if (m === 0) {
-      opts.onProgress?.((r + 1) / R);
+      onReplicate?.(j + 1);
       continue;
     }
     const ss = sideStats(t.sides, sample);
-    values.meanSides[r] = ss.mean;
-    values.mu2[r] = ss.mu2;
-    values.p6[r] = ss.p6;
-    values.lemaitre[r] = ss.lemaitre;
-    sidesCurves.set(ss.p, r * (MAX_SIDES + 1));
+    values[v + STAT.meanSides] = ss.mean;
+    values[v + STAT.mu2] = ss.mu2;
+    values[v + STAT.p6] = ss.p6;
+    values[v + STAT.lemaitre] = ss.lemaitre;
+    sides.set(ss.p, j * NS);
     const as = areaStats(t.area, sample);
-    values.areaVariance[r] = as.variance;
-    values.areaCv[r] = as.cv;
-    values.gammaShape[r] = as.gammaShape;
-    areaSamples[r] = as;
-    pooled.add(as, sample.weightSum);
-    ecdfOnGrid(as, areaGrid, ecdfCurves, r * G);
-    for (let k = 0; k + 1 < G; k++) {
-      histCurves[r * (G - 1) + k] = (ecdfCurves[r * G + k + 1]! - ecdfCurves[r * G + k]!) / AREA_GRID_STEP;
-    }
+    values[v + STAT.areaVariance] = as.variance;
+    values[v + STAT.areaCv] = as.cv;
+    values[v + STAT.gammaShape] = as.gammaShape;
+    sortedParts.push(as.sorted);
+    cumulativeParts.push(as.cumulative);
+    areaLength += as.sorted.length;
+    areaOffsets[j + 1] = areaLength;
+    weightSum[j] = sample.weightSum;
+    ecdfOnGrid(as, areaGrid, ecdf, j * G);
     let per = 0;
     for (let k = 0; k < m; k++) per += sample.weight[k]! * t.perimeter[sample.index[k]!]!;
-    values.meanPerimeterScaled[r] = (per / sample.weightSum) * sqrtLambda;
+    values[v + STAT.meanPerimeterScaled] = (per / sample.weightSum) * sqrtLambda;
     const lewis = lewisLaw(t.sides, t.area, sample, as.mean);
-    values.lewisSlope[r] = lewis.fit.slope;
-    values.lewisIntercept[r] = lewis.fit.intercept;
-    accumulateClasses(lewis, lewisW, lewisV);
+    values[v + STAT.lewisSlope] = lewis.fit.slope;
+    values[v + STAT.lewisIntercept] = lewis.fit.intercept;
+    classRow(lewis, lewisW, lewisV, j * NS);
     const aw = aboavWeaireLaw(t.sides, t.edge, t.neighbourOffsets, t.neighbourIndex, sample);
-    values.aboavA[r] = aw.a;
-    accumulateClasses(aw, aboavW, aboavV);
-    opts.onProgress?.((r + 1) / R);
+    values[v + STAT.aboavA] = aw.a;
+    classRow(aw, aboavW, aboavV, j * NS);
+    onReplicate?.(j + 1);
+  }
+  return {
+    r0, r1, values, sides, ecdf, l, areaOffsets, areaSorted: concat(sortedParts, areaLength), areaCumulative: concat(cumulativeParts, areaLength),
+    weightSum, lewisW, lewisV, aboavW, aboavV,
+  };
+}
+
+/**
+ * Assembles the reference from batches that together hold every replicate of the plan once (in any
+ * order; any split). Pooled sums run over the replicates in order, so the result does not depend on the
+ * split: the same bytes from one thread or several.
+ * @throws TooFewCellsError when no replicate has an interior cell
+ */
+export function combineReplicates(plan: ReferencePlan, batches: ReplicateBatch[]): Reference {
+  const { cells, field, replicates: R, seed, edgeRule, minArea, layout, density, radii, areaGrid } = plan;
+  const nr = radii.length;
+  const G = areaGrid.length;
+  const W = field.x1 - field.x0;
+  const H = field.y1 - field.y0;
+  const warnings = [...plan.warnings];
+  const sorted = [...batches].sort((a, b) => a.r0 - b.r0);
+  let next = 0;
+  for (const b of sorted) {
+    if (b.r0 !== next) throw new Error(`Reference batches do not cover replicates ${next}..${b.r0 - 1}.`);
+    next = b.r1;
+  }
+  if (next !== R) throw new Error(`Reference batches stop at replicate ${next} of ${R}.`);
+
+  const values = {} as Record<ReferenceStatistic, Float64Array>;
+  for (const name of REFERENCE_STATISTICS) values[name] = new Float64Array(R);
+  const sidesCurves = new Float64Array(R * NS);
+  const ecdfCurves = new Float64Array(R * G);
+  const histCurves = new Float64Array(R * (G - 1)).fill(Number.NaN);
+  const lCurves = new Float64Array(R * nr);
+  const areaSamples: (Pick<AreaStats, 'sorted' | 'cumulative'> | null)[] = new Array(R).fill(null);
+  const pooled = new AreaCdfTable();
+  const lewisW = new Float64Array(NS);
+  const lewisV = new Float64Array(NS);
+  const aboavW = new Float64Array(NS);
+  const aboavV = new Float64Array(NS);
+  let interiorTotal = 0;
+  for (const b of sorted) {
+    for (let j = 0; j < b.r1 - b.r0; j++) {
+      const r = b.r0 + j;
+      for (let s = 0; s < NSTAT; s++) values[REFERENCE_STATISTICS[s]!][r] = b.values[j * NSTAT + s]!;
+      interiorTotal += values.interiorCells[r]!;
+      sidesCurves.set(b.sides.subarray(j * NS, (j + 1) * NS), r * NS);
+      ecdfCurves.set(b.ecdf.subarray(j * G, (j + 1) * G), r * G);
+      lCurves.set(b.l.subarray(j * nr, (j + 1) * nr), r * nr);
+      const a0 = b.areaOffsets[j]!;
+      const a1 = b.areaOffsets[j + 1]!;
+      if (!(values.interiorCells[r]! > 0)) continue;
+      const as = { sorted: b.areaSorted.subarray(a0, a1), cumulative: b.areaCumulative.subarray(a0, a1) };
+      areaSamples[r] = as;
+      pooled.add(as, b.weightSum[j]!);
+      for (let k = 0; k + 1 < G; k++) {
+        histCurves[r * (G - 1) + k] = (ecdfCurves[r * G + k + 1]! - ecdfCurves[r * G + k]!) / AREA_GRID_STEP;
+      }
+      // Classes a replicate does not have hold 0 in its rows, and adding 0 changes no sum.
+      for (let n = 0; n < NS; n++) {
+        lewisW[n]! += b.lewisW[j * NS + n]!;
+        lewisV[n]! += b.lewisV[j * NS + n]!;
+        aboavW[n]! += b.aboavW[j * NS + n]!;
+        aboavV[n]! += b.aboavV[j * NS + n]!;
+      }
+    }
   }
   if (interiorTotal === 0) {
     throw new TooFewCellsError(
@@ -275,14 +435,14 @@ function draw(opts: ReferenceOptions): Reference {
     );
   }
 
-  const sides = envelope(sidesCurves, R, MAX_SIDES + 1);
+  const sides = envelope(sidesCurves, R, NS);
   const lEnv = envelope(lCurves, R, nr);
   // Second pass: distances of each replicate to the reference's own mean curves.
   for (let r = 0; r < R; r++) {
     const as = areaSamples[r];
     if (!as) continue;
     values.ksDistance[r] = ksDistance(as, (y) => pooled.at(y));
-    values.sidesChiSquare[r] = sidesChiSquare(sidesCurves.subarray(r * (MAX_SIDES + 1), (r + 1) * (MAX_SIDES + 1)), values.interiorCells[r]!, sides.mean);
+    values.sidesChiSquare[r] = sidesChiSquare(sidesCurves.subarray(r * NS, (r + 1) * NS), values.interiorCells[r]!, sides.mean);
   }
   for (let r = 0; r < R; r++) values.lMaxDeviation[r] = maxDeviation(lCurves.subarray(r * nr, (r + 1) * nr), lEnv.mean);
 
@@ -300,7 +460,7 @@ function draw(opts: ReferenceOptions): Reference {
   }
   return {
     options: { cells, field: { ...field }, replicates: R, seed, edgeRule, minCellAreaPx: minArea, layout, density },
-    seedsPerReplicate: seeds,
+    seedsPerReplicate: plan.seeds,
     values,
     mean,
     sd,
@@ -318,6 +478,21 @@ function draw(opts: ReferenceOptions): Reference {
   };
 }
 
+function concat(parts: Float64Array[], length: number): Float64Array {
+  const out = new Float64Array(length);
+  let o = 0;
+  for (const p of parts) (out.set(p, o), (o += p.length));
+  return out;
+}
+
+/** One replicate's class counts and count × class mean into row `offset` of w and v. */
+function classRow(law: { n: number[]; value: number[]; count: number[] }, w: Float64Array, v: Float64Array, offset: number): void {
+  for (let k = 0; k < law.n.length; k++) {
+    w[offset + law.n[k]!] = law.count[k]!;
+    v[offset + law.n[k]!] = law.count[k]! * law.value[k]!;
+  }
+}
+
 /** Centroids of the cells at least minArea large (the ones a segmentation would see). */
 function visibleCentroids(centroid: Float64Array, area: Float64Array, minArea: number): Float64Array {
   if (!(minArea > 0)) return centroid;
@@ -333,13 +508,6 @@ function visibleCentroids(centroid: Float64Array, area: Float64Array, minArea: n
   return out;
 }
 
-function accumulateClasses(law: { n: number[]; value: number[]; count: number[] }, w: Float64Array, v: Float64Array): void {
-  for (let k = 0; k < law.n.length; k++) {
-    w[law.n[k]!]! += law.count[k]!;
-    v[law.n[k]!]! += law.count[k]! * law.value[k]!;
-  }
-}
-
 function pooledClasses(w: Float64Array, v: Float64Array): { n: number[]; value: number[] } {
   const n: number[] = [];
   const value: number[] = [];
@@ -353,7 +521,7 @@ function pooledClasses(w: Float64Array, v: Float64Array): { n: number[]; value: 
 }
 
 /** ECDF of a sample at the grid points into out[offset ..]. */
-export function ecdfOnGrid(a: AreaStats, grid: Float64Array, out: Float64Array, offset: number): void {
+export function ecdfOnGrid(a: Pick<AreaStats, 'sorted' | 'cumulative'>, grid: Float64Array, out: Float64Array, offset: number): void {
   let k = 0;
   let c = 0;
   for (let g = 0; g < grid.length; g++) {

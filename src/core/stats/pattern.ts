@@ -188,7 +188,7 @@ export class AreaCdfTable {
     this.mass = new Float64Array(this.bins + 1);
   }
   /** Adds a sample (sorted values with cumulative weight fractions) with total weight `weight`. */
-  add(a: AreaStats, weight = 1): void {
+  add(a: Pick<AreaStats, 'sorted' | 'cumulative'>, weight = 1): void {
     let prev = 0;
     for (let k = 0; k < a.sorted.length; k++) {
       const b = Math.min(this.bins, Math.floor(a.sorted[k]! / this.step));
@@ -219,7 +219,7 @@ export class AreaCdfTable {
  * max over sorted y_(k) of |F(y_(k)) − c_k| and |F(y_(k)) − c_{k−1}|, c the cumulative weight fractions.
  * (Kolmogorov 1933; Smirnov 1948; pub, memory.)
  */
-export function ksDistance(a: AreaStats, F: (y: number) => number): number {
+export function ksDistance(a: Pick<AreaStats, 'sorted' | 'cumulative'>, F: (y: number) => number): number {
   let d = 0;
   let prev = 0;
   for (let k = 0; k < a.sorted.length; k++) {

@@ -5,13 +5,13 @@
 import { describeError } from '../errors';
 import type { Settings } from '../settings';
 import type { Tessellation } from '../tessellate';
-import type { LabelImage } from '../types';
+import type { LabelImage, Rect } from '../types';
 import {
   PV_ABOAV_A, PV_AREA_CV, PV_AREA_GAMMA_SHAPE, PV_LEWIS_SLOPE, PV_SIDES_DISTRIBUTION, PV_SIDES_VARIANCE, LEMAITRE_CONSTANT, LEMAITRE_RANGE,
 } from '../reference/constants';
 import {
   AREA_GRID_MAX, AREA_GRID_STEP, ecdfOnGrid, maxDeviation, referenceMonteCarlo, referenceSummary, sidesChiSquare,
-  type Reference, type ReferenceLayout, type ReferenceStatistic,
+  type Reference, type ReferenceLayout, type ReferenceOptions, type ReferenceStatistic,
 } from '../reference/montecarlo';
 import { chiSquareUpper, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';
@@ -41,10 +41,35 @@ export interface RandomnessInput {
   settings: Settings;
   /** A reference drawn beforehand (for the same field, cell count, edge rule); drawn here if absent. */
   reference?: Reference;
+  /** Why the reference drawn beforehand could not be drawn (then none is drawn here). */
+  referenceError?: string;
   /** Observed neighbour graph (walls: from the segmentation), CSR; default the tessellation's. */
   neighbours?: { offsets: Int32Array; index: Int32Array };
   /** Minimum cell area (px²) the observation used; default settings.minCellAreaPx when positive and the pattern is not points. */
   minCellAreaPx?: number;
+}
+
+/** The minimum cell area (px²) the observation used: the segmentation's, else settings.minCellAreaPx for images, else 0. */
+function observedMinArea(settings: Settings, minCellAreaPx?: number): number {
+  return minCellAreaPx ?? (settings.pattern !== 'points' && settings.minCellAreaPx > 0 ? settings.minCellAreaPx : 0);
+}
+
+/** Walls patterns are a window on a larger tissue; bodies and points are the seeds in the field. */
+function referenceLayoutOf(settings: Settings): ReferenceLayout {
+  return settings.pattern === 'walls' ? 'window' : 'seeds';
+}
+
+/**
+ * The options of the random-seeding reference for an observation of `cells` cells in `field` (the one
+ * place they are worked out, for {@link randomness} and for a reference started ahead of it), or null
+ * when the settings ask for no reference (replicates 0).
+ */
+export function referenceOptionsFor(settings: Settings, cells: number, field: Rect, minCellAreaPx?: number): ReferenceOptions | null {
+  if (settings.reference.replicates < 1) return null;
+  return {
+    cells, field, replicates: settings.reference.replicates, seed: settings.reference.seed, edgeRule: settings.edgeRule,
+    minCellAreaPx: observedMinArea(settings, minCellAreaPx), layout: referenceLayoutOf(settings),
+  };
 }
 
 /** One row of the tests table. */
@@ -213,20 +238,21 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const field = t.field;
   const n = area.length;
   const alpha = settings.reference.alpha;
-  const minArea = input.minCellAreaPx ?? (settings.pattern !== 'points' && settings.minCellAreaPx > 0 ? settings.minCellAreaPx : 0);
-  const layout: ReferenceLayout = settings.pattern === 'walls' ? 'window' : 'seeds';
+  const minArea = observedMinArea(settings, input.minCellAreaPx);
+  const layout = referenceLayoutOf(settings);
   const bbox = input.bbox ?? t.bbox;
   const graph = input.neighbours ?? { offsets: t.neighbourOffsets, index: t.neighbourIndex };
 
   let ref: Reference | null = input.reference ?? null;
   if (!ref) {
-    if (settings.reference.replicates < 1) {
+    const refOpts = referenceOptionsFor(settings, n, field, input.minCellAreaPx);
+    if (!refOpts) {
       warnings.push('No random-seeding reference was drawn (reference.replicates is 0); only the published constants are shown. Set replicates to 199 for tests.');
+    } else if (input.referenceError !== undefined) {
+      warnings.push(`The random-seeding reference could not be drawn: ${input.referenceError}`);
     } else {
       try {
-        ref = referenceMonteCarlo({
-          cells: n, field, replicates: settings.reference.replicates, seed: settings.reference.seed, edgeRule: settings.edgeRule, minCellAreaPx: minArea, layout,
-        });
+        ref = referenceMonteCarlo(refOpts);
       } catch (e) {
         warnings.push(`The random-seeding reference could not be drawn: ${describeError(e)}`);
       }
