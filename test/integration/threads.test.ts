@@ -1,0 +1,36 @@
+/**
+ * An analysis whose random-seeding reference is drawn on worker threads is the same, byte for byte, as
+ * one drawn on the calling thread (the project's rule: same inputs, same bytes out; DEVELOPERS.md).
+ */
+import { afterAll, describe, expect, it } from 'vitest';
+import { analyze } from '../../src/core/analyze';
+import { summaryJson } from '../../src/core/export/index';
+import { clearReferenceCache } from '../../src/core/reference/montecarlo';
+import { synthesize } from '../../src/core/synth/index';
+import { seedPoints } from '../../src/core/synth/seeds';
+import { createNodeReferencePool } from '../../src/node/referencePool';
+
+describe('reference threads change nothing in the results', () => {
+  const pool = createNodeReferencePool(1);
+  afterAll(() => pool.close());
+  const settings = { umPerPx: 0.5, reference: { replicates: 39, seed: 3 } };
+
+  it('walls image: the same summary.json with and without the pool', async () => {
+    const img = synthesize({ pattern: 'walls', cells: 400, width: 700, height: 600, order: 'random', seed: 8 }).image;
+    clearReferenceCache();
+    const one = await analyze({ kind: 'image', image: img }, settings);
+    clearReferenceCache();
+    const many = await analyze({ kind: 'image', image: img }, settings, { referencePool: pool });
+    expect((many.summary.randomness as { reference: { R: number } }).reference.R).toBe(39);
+    expect(summaryJson(many)).toBe(summaryJson(one));
+  });
+
+  it('points: the same summary.json with and without the pool', async () => {
+    const pts = seedPoints(800, 900, 900, 'random', 4);
+    clearReferenceCache();
+    const one = await analyze({ kind: 'points', points: pts, width: 900, height: 900 }, { ...settings, pattern: 'points' });
+    clearReferenceCache();
+    const many = await analyze({ kind: 'points', points: pts, width: 900, height: 900 }, { ...settings, pattern: 'points' }, { referencePool: pool });
+    expect(summaryJson(many)).toBe(summaryJson(one));
+  });
+});
