@@ -2,7 +2,7 @@
  * `npm run bench`: the whole job on generated inputs, each case in its own Node process; medians of the
  * runs after a warm-up; a table on stdout, Markdown after it, JSON in bench-results/latest.json.
  *
- * Flags: --runs N (timed runs per case, default 5), --only id,id (cases by id), --browser (also the
+ * Flags: --runs N (timed runs per case, default 5), --only id,id (cases by id; 'reference' for the reference alone), --browser (also the
  * 16 MP image through the web app's worker in headless Chromium), --browser-runs N (default 2),
  * --no-node (browser part only).
  */
@@ -13,6 +13,7 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { STAGES, type CaseResult, type RunTimes } from './stages';
 import { defaultCases, imageFile, type BenchCase } from './inputs';
+import type { ReferenceCaseResult } from './referenceCase';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
 
@@ -105,6 +106,18 @@ function runCase(c: BenchCase, runs: number): CaseResult {
   return JSON.parse(out.trim().split('\n').pop()!) as CaseResult;
 }
 
+/** The reference alone (test/bench/referenceCase.ts) in its own process. */
+function runReferenceCases(runs: number): ReferenceCaseResult[] {
+  const out = execFileSync(process.execPath, ['--import', 'tsx/esm', join(ROOT, 'test/bench/referenceCase.ts'), String(runs)], {
+    cwd: ROOT,
+    encoding: 'utf8',
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  return JSON.parse(out.trim().split('\n').pop()!) as ReferenceCaseResult[];
+}
+
+const REF_HEAD = ['random-seeding reference (cache off)', 'threads', 'median ms'];
+
 const COLS = ['decode', 'segment', 'measure', 'tessellate', 'statistics', 'grain', 'export', 'analysis', 'total'];
 const HEAD = ['case', 'cells', ...COLS.map((c) => `${c} ms`), 'MP/s', 'RSS analysis MB', 'RSS all MB'];
 
@@ -131,9 +144,12 @@ interface Target {
 }
 
 /** The issue's targets, checked against the medians (null = its case was not run). */
-function targets(sums: CaseSummary[], browser: Record<string, unknown> | null): Target[] {
+function targets(sums: CaseSummary[], browser: Record<string, unknown> | null, refs: ReferenceCaseResult[]): Target[] {
   const by = (id: string) => sums.find((s) => s.id === id);
   const out: Target[] = [];
+  for (const r of refs.filter((x) => x.id.endsWith('-3000') && x.threads > 1)) {
+    out.push({ target: `default reference, ${r.label.split(',')[0]}, ${r.id.split('-')[0]} layout < 1000 ms`, measured: `${r.medianMs.toFixed(0)} ms`, met: r.medianMs < 1000 });
+  }
   const w16 = by('walls-4096');
   if (w16) {
     const a = w16.median.analysis!;
@@ -183,6 +199,11 @@ async function main(): Promise<void> {
       for (const [k, v] of Object.entries(s.exportErrors)) process.stderr.write(`  export ${k} failed: ${v}\n`);
     }
   }
+  let refs: ReferenceCaseResult[] = [];
+  if (flags.node && (!flags.only || flags.only.includes('reference'))) {
+    process.stderr.write(`random-seeding reference alone: ${flags.runs} runs after a warm-up...\n`);
+    refs = runReferenceCases(flags.runs);
+  }
   let browser: Record<string, unknown> | null = null;
   if (flags.browser) {
     const { browserBench } = await import('./browser');
@@ -194,18 +215,20 @@ async function main(): Promise<void> {
   }
   const load1 = loadavg();
   const rows = sums.map(row);
-  const t = targets(sums, browser);
+  const t = targets(sums, browser, refs);
   const machineLine = `${m.cpu}, ${m.cores} cores, Node ${m.node}, ${m.platform}; load average ${load0[0]!.toFixed(1)} at the start, ${load1[0]!.toFixed(1)} at the end; median of ${flags.runs} runs after a warm-up, opencv.js load excluded.`;
   if (rows.length) {
     process.stdout.write(`\n${textTable(HEAD, rows)}\n\n${machineLine}\n`);
   }
+  const refRows = refs.map((r) => [r.label, String(r.threads), r.medianMs.toFixed(0)]);
+  if (refRows.length) process.stdout.write(`\n${textTable(REF_HEAD, refRows)}\n`);
   if (browser) process.stdout.write(`\nBrowser (headless Chromium, web worker): ${JSON.stringify(browser)}\n`);
   if (t.length) process.stdout.write(`\n${textTable(['target', 'measured', 'met'], t.map((x) => [x.target, x.measured, x.met === null ? '–' : x.met ? 'yes' : 'NO']))}\n`);
-  const md = [rows.length ? markdownTable(HEAD, rows) : '', '', `Machine: ${machineLine}`].join('\n');
+  const md = [rows.length ? markdownTable(HEAD, rows) : '', '', ...(refRows.length ? [markdownTable(REF_HEAD, refRows), ''] : []), `Machine: ${machineLine}`].join('\n');
   process.stdout.write(`\nMarkdown:\n\n${md}\n`);
   const dir = join(ROOT, 'bench-results');
   mkdirSync(dir, { recursive: true });
-  writeFileSync(join(dir, 'latest.json'), `${JSON.stringify({ started, finished: new Date().toISOString(), machine: { ...m, loadavgStart: load0, loadavgEnd: load1 }, runs: flags.runs, cases: sums, browser, targets: t }, null, 1)}\n`);
+  writeFileSync(join(dir, 'latest.json'), `${JSON.stringify({ started, finished: new Date().toISOString(), machine: { ...m, loadavgStart: load0, loadavgEnd: load1 }, runs: flags.runs, cases: sums, reference: refs, browser, targets: t }, null, 1)}\n`);
   writeFileSync(join(dir, 'latest.md'), `${md}\n`);
   process.stderr.write(`Wrote ${join(dir, 'latest.json')} and latest.md\n`);
 }
