@@ -5,6 +5,7 @@
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import { basename, join } from 'node:path';
 import { cropImage, reanalyzeLabels } from '../../core/analyze';
+import { sharedReferencePool } from '../../node/referencePool';
 import { describeError, SettingsError, TessellabError } from '../../core/errors';
 import { decodeImage } from '../../core/image/decode';
 import { encodePng } from '../../core/image/encode';
@@ -140,7 +141,7 @@ export const command: Command = {
         const last = frames[frames.length - 1]!;
         const f = result.field;
         const crop: GreyImage = cropImage(last, f);
-        const an = await reanalyzeLabels(mosaic.labels, crop, { ...settings, pattern: 'walls', field: f }, { width: last.width, height: last.height });
+        const an = await reanalyzeLabels(mosaic.labels, crop, { ...settings, pattern: 'walls', field: f }, { width: last.width, height: last.height }, { referencePool: sharedReferencePool() });
         const nuclei = mosaic.nuclei;
         await writeFile(join(out, 'final.summary.json'), JSON.stringify({ summary: an.summary, nuclei, complete: mosaic.complete }, null, 2) + '\n');
         if (!mosaic.complete) process.stderr.write('kinetics: warning: the last frame has not reached fitMax; the mosaic still has untransformed gaps.\n');
