@@ -8,11 +8,12 @@ import { CalibrationError, SettingsError, TessellabError } from '../errors';
 import type { PatternKind, Settings } from '../settings';
 import type { LabelImage, Rect } from '../types';
 import { checkLabelsAndField } from './check';
-import { centredFigure, quadrants } from './figure';
+import { centredFigure, checkFigureInField, quadrants } from './figure';
 import { gFromMeanArea, gFromMeanIntercept, gFromNA, G_MAX, G_MIN, isoFromAstm, isPlausibleG, formatG, roundG } from './formulas';
 import { interceptCount, testPatterns } from './intercept';
-import { jeffriesCount } from './jeffries';
-import { duplexCheck, gHistogram, insideGrains, milesLantuejoulWeight } from './meanArea';
+import { fieldCensus, type FieldCensus } from './census';
+import { jeffriesCountOf, wholePixelFigure } from './jeffries';
+import { duplexCheck, gHistogram, insideGrainsOf, milesLantuejoulWeight } from './meanArea';
 import { precision, type Precision } from './precision';
 import type { GrainSizeResult, InterceptPatternResult, InterceptResult, MeanAreaResult, PlanimetricResult, TestFigure } from './types';
 
@@ -62,15 +63,19 @@ function plausibility(G: number, what: string, umPerPx: number, warnings: string
   }
 }
 
-function planimetric(input: GrainSizeInput, mmPerPx: number, warnings: string[]): PlanimetricResult | null {
-  const { labels, field, settings } = input;
+/** The planimetric test figures: the one centred in the field, then one in each quadrant (whole px). */
+function planimetricFigures(field: Rect, settings: Settings): TestFigure[] {
+  const g = settings.grain;
+  return [field, ...quadrants(field)].map((r) => wholePixelFigure(centredFigure(r, g.testShape, g.testSizeFraction)));
+}
+
+function planimetric(input: GrainSizeInput, census: FieldCensus, figures: readonly TestFigure[], mmPerPx: number, warnings: string[]): PlanimetricResult | null {
+  const { labels, settings } = input;
   const g = settings.grain;
   const unbiased = g.unbiasedCorrection;
   const shapeWord = g.testShape === 'circle' ? 'circle' : 'rectangle';
-  let figure: TestFigure;
   try {
-    figure = centredFigure(field, g.testShape, g.testSizeFraction);
-    const count = jeffriesCount(labels, field, figure, { unbiased });
+    const count = jeffriesCountOf(labels, census, figures[0]!, { unbiased });
     const areaMm2 = count.areaPx2 * mmPerPx * mmPerPx;
     if (!(count.count > 0)) {
       warnings.push(`Planimetric: no grains counted in the test ${shapeWord}; the figure is too small for these grains: enlarge it (grain.testSizeFraction) or the field.`);
@@ -84,9 +89,8 @@ function planimetric(input: GrainSizeInput, mmPerPx: number, warnings: string[])
       );
     }
     plausibility(G, 'Planimetric', input.umPerPx!, warnings);
-    const placements = quadrants(field).map((q) => {
-      const f = centredFigure(q, g.testShape, g.testSizeFraction);
-      const c = jeffriesCount(labels, field, f, { unbiased });
+    const placements = figures.slice(1).map((f) => {
+      const c = jeffriesCountOf(labels, census, f, { unbiased });
       const na = c.count / (c.areaPx2 * mmPerPx * mmPerPx);
       return { figure: c.figure, count: c.count, NA_per_mm2: na, G: na > 0 ? gFromNA(na) : null };
     });
@@ -179,9 +183,9 @@ function intercept(input: GrainSizeInput, mmPerPx: number, warnings: string[]): 
   };
 }
 
-function meanArea(input: GrainSizeInput, mmPerPx: number, warnings: string[]): MeanAreaResult | null {
-  const { labels, field } = input;
-  const ig = insideGrains(labels, field);
+function meanArea(input: GrainSizeInput, census: FieldCensus, mmPerPx: number, warnings: string[]): MeanAreaResult | null {
+  const { field } = input;
+  const ig = insideGrainsOf(census);
   const n = ig.labels.length;
   if (n === 0) {
     warnings.push('Mean area: no grain lies wholly inside the field; the grains are too large for it: use a lower magnification.');
@@ -268,9 +272,22 @@ export function grainSize(input: GrainSizeInput): GrainSizeResult {
   checkLabelsAndField(input.labels, field);
   const mmPerPx = umPerPx / 1000;
   const warnings: string[] = [];
-  const plan = planimetric(input, mmPerPx, warnings);
+  // One pass over the labels serves the planimetric figures (those that fit the field; the others fail
+  // in planimetric with their message) and the mean-area method.
+  const figures = planimetricFigures(field, input.settings);
+  const fits = (f: TestFigure): boolean => {
+    try {
+      checkFigureInField(f, field);
+      return true;
+    } catch (e) {
+      if (e instanceof TessellabError) return false;
+      throw e;
+    }
+  };
+  const census = fieldCensus(input.labels, field, figures.map((f) => (fits(f) ? f : null)));
+  const plan = planimetric(input, census, figures, mmPerPx, warnings);
   const inter = intercept(input, mmPerPx, warnings);
-  const area = meanArea(input, mmPerPx, warnings);
+  const area = meanArea(input, census, mmPerPx, warnings);
   const head = plan ?? inter;
   let G: number | null = head ? head.G : area ? area.G : null;
   const method = head ? head.method : area ? area.method : null;

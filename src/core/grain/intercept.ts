@@ -84,39 +84,71 @@ function checkPatternInField(p: TestPattern, field: Rect): void {
   }
 }
 
-/** Sample positions along a pattern and the label at each (nearest pixel, clamped to the field). */
-function sample(labels: LabelImage, field: Rect, p: TestPattern): { lab: Int32Array; xs: Float64Array; ys: Float64Array; stepPx: number } {
-  const len = patternLength(p);
-  const ns = Math.max(2, Math.ceil(len / STEP_PX));
-  const lab = new Int32Array(ns);
-  const xs = new Float64Array(ns);
-  const ys = new Float64Array(ns);
-  const w = labels.width;
-  for (let i = 0; i < ns; i++) {
-    const t = (i + 0.5) / ns;
-    let x: number;
-    let y: number;
-    if (p.kind === 'line') {
-      x = p.x0 + t * (p.x1 - p.x0);
-      y = p.y0 + t * (p.y1 - p.y0);
-    } else {
-      const a = 2 * Math.PI * t;
-      x = p.cx + p.r * Math.cos(a);
-      y = p.cy + p.r * Math.sin(a);
-    }
-    xs[i] = x;
-    ys[i] = y;
-    const ix = Math.min(field.x1 - 1, Math.max(field.x0, Math.floor(x)));
-    const iy = Math.min(field.y1 - 1, Math.max(field.y0, Math.floor(y)));
-    lab[i] = labels.labels[iy * w + ix]!;
-  }
-  return { lab, xs, ys, stepPx: len / ns };
+/** Position (px) of sample i of ns along a pattern: at t = (i + ½)/ns of its length. */
+function samplePos(p: TestPattern, i: number, ns: number): [number, number] {
+  const t = (i + 0.5) / ns;
+  if (p.kind === 'line') return [p.x0 + t * (p.x1 - p.x0), p.y0 + t * (p.y1 - p.y0)];
+  const a = 2 * Math.PI * t;
+  return [p.cx + p.r * Math.cos(a), p.cy + p.r * Math.sin(a)];
 }
 
 interface Run {
   label: number;
   start: number;
   end: number;
+}
+
+/**
+ * The runs of equal labels along a pattern: samples at the positions of {@link samplePos}, each taking the
+ * label of its nearest pixel (clamped to the field); run r covers samples [start, end).
+ */
+function sampleRuns(labels: LabelImage, field: Rect, p: TestPattern): { runs: Run[]; ns: number; stepPx: number } {
+  const len = patternLength(p);
+  const ns = Math.max(2, Math.ceil(len / STEP_PX));
+  const w = labels.width;
+  const L = labels.labels;
+  const fx0 = field.x0;
+  const fy0 = field.y0;
+  const fx1 = field.x1 - 1;
+  const fy1 = field.y1 - 1;
+  const runs: Run[] = [];
+  let cur = 0;
+  let s = 0;
+  // The same arithmetic as samplePos, one loop per kind.
+  if (p.kind === 'line') {
+    const { x0, y0 } = p;
+    const dx = p.x1 - p.x0;
+    const dy = p.y1 - p.y0;
+    for (let i = 0; i < ns; i++) {
+      const t = (i + 0.5) / ns;
+      const ix = Math.min(fx1, Math.max(fx0, Math.floor(x0 + t * dx)));
+      const iy = Math.min(fy1, Math.max(fy0, Math.floor(y0 + t * dy)));
+      const l = L[iy * w + ix]!;
+      if (i === 0) cur = l;
+      else if (l !== cur) {
+        runs.push({ label: cur, start: s, end: i });
+        cur = l;
+        s = i;
+      }
+    }
+  } else {
+    const { cx, cy, r } = p;
+    const twoPi = 2 * Math.PI;
+    for (let i = 0; i < ns; i++) {
+      const a = twoPi * ((i + 0.5) / ns);
+      const ix = Math.min(fx1, Math.max(fx0, Math.floor(cx + r * Math.cos(a))));
+      const iy = Math.min(fy1, Math.max(fy0, Math.floor(cy + r * Math.sin(a))));
+      const l = L[iy * w + ix]!;
+      if (i === 0) cur = l;
+      else if (l !== cur) {
+        runs.push({ label: cur, start: s, end: i });
+        cur = l;
+        s = i;
+      }
+    }
+  }
+  runs.push({ label: cur, start: s, end: ns });
+  return { runs, ns, stepPx: len / ns };
 }
 
 /** Whether a grain other than the `known` ones lies in the pixels around (x, y) within `half` px (square). */
@@ -149,19 +181,11 @@ function thirdGrainNear(labels: LabelImage, field: Rect, x: number, y: number, h
  * E112); this equals the number of boundary regions passed.
  */
 function countOne(labels: LabelImage, field: Rect, p: TestPattern, tauPx: number): PatternCount {
-  const { lab, xs, ys, stepPx } = sample(labels, field, p);
+  const { runs, ns, stepPx } = sampleRuns(labels, field, p);
   const closed = p.kind === 'circle';
-  const runs: Run[] = [];
-  let s = 0;
-  for (let i = 1; i <= lab.length; i++) {
-    if (i === lab.length || lab[i] !== lab[s]) {
-      runs.push({ label: lab[s]!, start: s, end: i });
-      s = i;
-    }
-  }
   if (closed && runs.length > 1 && runs[0]!.label === runs[runs.length - 1]!.label) {
     const last = runs.pop()!;
-    runs[0] = { label: last.label, start: last.start - lab.length, end: runs[0]!.end };
+    runs[0] = { label: last.label, start: last.start - ns, end: runs[0]!.end };
   }
   const isLong = (r: Run, i: number): boolean => {
     if (r.label <= 0) return false;
@@ -175,13 +199,15 @@ function countOne(labels: LabelImage, field: Rect, p: TestPattern, tauPx: number
   const crossings: Crossing[] = [];
   const nPairs = closed ? (longIdx.length === 1 && runs.length === 1 ? 0 : longIdx.length) : longIdx.length - 1;
   const posAt = (k: number): [number, number] => {
-    const n = lab.length;
+    const n = ns;
     const i = Math.floor(k);
     const f = k - i;
     const i0 = ((i % n) + n) % n;
     const i1 = (i0 + 1) % n;
-    if (!closed && i1 === 0) return [xs[i0]!, ys[i0]!];
-    return [xs[i0]! + f * (xs[i1]! - xs[i0]!), ys[i0]! + f * (ys[i1]! - ys[i0]!)];
+    const [x0, y0] = samplePos(p, i0, n);
+    if (!closed && i1 === 0) return [x0, y0];
+    const [x1, y1] = samplePos(p, i1, n);
+    return [x0 + f * (x1 - x0), y0 + f * (y1 - y0)];
   };
   for (let k = 0; k < nPairs; k++) {
     const ia = longIdx[k]!;
@@ -191,7 +217,7 @@ function countOne(labels: LabelImage, field: Rect, p: TestPattern, tauPx: number
     // Samples of the boundary region between the two grain segments: from A's last to B's first.
     const from = A.end - 1;
     let to = B.start;
-    if (to <= from) to += lab.length;
+    if (to <= from) to += ns;
     const [x, y] = posAt((from + to) / 2);
     if (A.label === B.label) {
       crossings.push({ x, y, weight: 1, kind: 'tangent' });

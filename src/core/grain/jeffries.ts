@@ -1,7 +1,8 @@
 /** The planimetric (Jeffries) count of grains in a test circle or rectangle. */
 import type { LabelImage, Rect } from '../types';
+import { fieldCensus, ON_BORDER, type FieldCensus } from './census';
 import { checkLabelsAndField } from './check';
-import { checkFigureInField, figureArea, figureContains } from './figure';
+import { checkFigureInField, figureArea } from './figure';
 import type { GrainMark, JeffriesCount, TestFigure } from './types';
 
 export interface JeffriesOptions {
@@ -55,29 +56,38 @@ function cornerLabel(labels: LabelImage, f: { x0: number; y0: number; x1: number
  */
 export function jeffriesCount(labels: LabelImage, field: Rect, figure: TestFigure, options: JeffriesOptions = {}): JeffriesCount {
   checkLabelsAndField(labels, field);
-  let f = figure;
-  if (f.shape === 'rectangle') f = { shape: 'rectangle', x0: Math.round(f.x0), y0: Math.round(f.y0), x1: Math.round(f.x1), y1: Math.round(f.y1) };
+  const f = wholePixelFigure(figure);
   checkFigureInField(f, field);
-  const n = labels.count + 1;
-  const inC = new Int32Array(n);
-  const outOrBorder = new Uint8Array(n);
-  const sx = new Float64Array(n);
-  const sy = new Float64Array(n);
-  const w = labels.width;
-  const L = labels.labels;
-  for (let y = field.y0; y < field.y1; y++) {
-    const onBorderRow = y === field.y0 || y === field.y1 - 1;
-    for (let x = field.x0; x < field.x1; x++) {
-      const l = L[y * w + x]!;
-      if (l <= 0) continue;
-      if (figureContains(f, x + 0.5, y + 0.5)) {
-        inC[l]!++;
-        sx[l]! += x + 0.5;
-        sy[l]! += y + 0.5;
-        if (onBorderRow || x === field.x0 || x === field.x1 - 1) outOrBorder[l] = 1;
-      } else outOrBorder[l] = 1;
-    }
+  return jeffriesCountOf(labels, fieldCensus(labels, field, [f]), f, options);
+}
+
+/** A test rectangle with its sides rounded to whole pixels; a circle as it is. */
+export function wholePixelFigure(f: TestFigure): TestFigure {
+  return f.shape === 'rectangle' ? { shape: 'rectangle', x0: Math.round(f.x0), y0: Math.round(f.y0), x1: Math.round(f.x1), y1: Math.round(f.y1) } : f;
+}
+
+/** Whether two test figures are the same shape at the same place and size. */
+function sameFigure(a: TestFigure, b: TestFigure): boolean {
+  if (a.shape === 'circle') return b.shape === 'circle' && a.cx === b.cx && a.cy === b.cy && a.r === b.r;
+  return b.shape === 'rectangle' && a.x0 === b.x0 && a.y0 === b.y0 && a.x1 === b.x1 && a.y1 === b.y1;
+}
+
+/**
+ * {@link jeffriesCount} from a census of the field (labels and field checked). The census's tally is used
+ * when it holds this figure (made whole-pixel); otherwise the field is read again for it.
+ */
+export function jeffriesCountOf(labels: LabelImage, census: FieldCensus, figure: TestFigure, options: JeffriesOptions = {}): JeffriesCount {
+  const f = wholePixelFigure(figure);
+  checkFigureInField(f, census.field);
+  let tally = census.figures.find((t) => t !== null && sameFigure(t.figure, f));
+  if (!tally) {
+    census = fieldCensus(labels, census.field, [f]);
+    tally = census.figures[0]!;
   }
+  const n = labels.count + 1;
+  const inC = tally.count;
+  const sx = tally.sx;
+  const sy = tally.sy;
   const cornerCount = new Int32Array(n);
   if (f.shape === 'rectangle') {
     const pts: [number, number][] = [
@@ -103,7 +113,8 @@ export function jeffriesCount(labels: LabelImage, field: Rect, figure: TestFigur
     if (cornerCount[l]! > 0) {
       corner++;
       weight = 0.25 * cornerCount[l]!;
-    } else if (outOrBorder[l]) {
+    } else if ((census.flags[l]! & ON_BORDER) !== 0 || census.inField[l]! > c) {
+      // On the field's border, or with pixels in the field outside the figure.
       cut++;
       weight = 0.5;
     } else {

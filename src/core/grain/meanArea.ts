@@ -1,5 +1,6 @@
 /** Grain size from the areas of the individually segmented grains, and the per-grain G distribution. */
 import type { LabelImage, Rect } from '../types';
+import { fieldCensus, type FieldCensus } from './census';
 import { checkLabelsAndField } from './check';
 import { gFromMeanArea } from './formulas';
 import type { GBin } from './types';
@@ -26,44 +27,19 @@ export interface InsideGrains {
  */
 export function insideGrains(labels: LabelImage, field: Rect): InsideGrains {
   checkLabelsAndField(labels, field);
-  const n = labels.count + 1;
-  const area = new Float64Array(n);
-  const bx0 = new Int32Array(n).fill(2 ** 30);
-  const by0 = new Int32Array(n).fill(2 ** 30);
-  const bx1 = new Int32Array(n).fill(-1);
-  const by1 = new Int32Array(n).fill(-1);
-  const out = new Uint8Array(n);
-  const w = labels.width;
-  const L = labels.labels;
-  let walls = 0;
-  for (let y = 0; y < labels.height; y++) {
-    const inY = y >= field.y0 && y < field.y1;
-    const borderY = y === field.y0 || y === field.y1 - 1;
-    for (let x = 0; x < w; x++) {
-      const l = L[y * w + x]!;
-      const inF = inY && x >= field.x0 && x < field.x1;
-      if (l <= 0) {
-        if (inF) walls++;
-        continue;
-      }
-      if (!inF || borderY || x === field.x0 || x === field.x1 - 1) {
-        out[l] = 1;
-        continue;
-      }
-      area[l]! += 1;
-      if (x < bx0[l]!) bx0[l] = x;
-      if (x > bx1[l]!) bx1[l] = x;
-      if (y < by0[l]!) by0[l] = y;
-      if (y > by1[l]!) by1[l] = y;
-    }
-  }
-  const res: InsideGrains = { labels: [], areaPx2: [], bboxW: [], bboxH: [], wallFraction: walls / ((field.x1 - field.x0) * (field.y1 - field.y0)) };
-  for (let l = 1; l < n; l++) {
-    if (out[l] || area[l] === 0) continue;
+  return insideGrainsOf(fieldCensus(labels, field));
+}
+
+/** {@link insideGrains} from a census of the field already taken. */
+export function insideGrainsOf(c: FieldCensus): InsideGrains {
+  const { field } = c;
+  const res: InsideGrains = { labels: [], areaPx2: [], bboxW: [], bboxH: [], wallFraction: c.walls / ((field.x1 - field.x0) * (field.y1 - field.y0)) };
+  for (let l = 1; l < c.interior.length; l++) {
+    if (c.flags[l] || c.interior[l] === 0) continue;
     res.labels.push(l);
-    res.areaPx2.push(area[l]!);
-    res.bboxW.push(bx1[l]! - bx0[l]! + 1);
-    res.bboxH.push(by1[l]! - by0[l]! + 1);
+    res.areaPx2.push(c.interior[l]!);
+    res.bboxW.push(c.bx1[l]! - c.bx0[l]! + 1);
+    res.bboxH.push(c.by1[l]! - c.by0[l]! + 1);
   }
   return res;
 }
