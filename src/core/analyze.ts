@@ -9,6 +9,7 @@ import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, 
 import { grainSize, grainSizeSummary } from './grain/index';
 import type { GrainSizeResult } from './grain/types';
 import { assignEvents, eventsDispersion } from './stats/events';
+import { voronoiLikeness } from './stats/likeness';
 import { randomness, referenceOptionsFor, type RandomnessResult } from './stats/randomness';
 import type { Reference } from './reference/montecarlo';
 import { startReference, type ReferencePool } from './reference/parallel';
@@ -146,13 +147,17 @@ function startReferenceFor(settings: Settings, cells: number, field: Rect, minCe
   const refOpts = referenceOptionsFor(settings, cells, field, minCellAreaPx);
   if (!refOpts) return null;
   const job = startReference(refOpts, opts.referencePool);
-  return async (): Promise<{ reference?: Reference; referenceError?: string }> => {
-    try {
-      return { reference: await job.result(opts.signal) };
-    } catch (e) {
-      if (e instanceof CancelledError) throw e;
-      return { referenceError: describeError(e) };
-    }
+  return {
+    /** Between the analysis's steps: the reference's workers take their next chunks. */
+    tick: () => job.tick(),
+    async result(): Promise<{ reference?: Reference; referenceError?: string }> {
+      try {
+        return { reference: await job.result(opts.signal) };
+      } catch (e) {
+        if (e instanceof CancelledError) throw e;
+        return { referenceError: describeError(e) };
+      }
+    },
   };
 }
 
@@ -174,6 +179,7 @@ async function measureLabels(
   // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile.
   const reference = startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts);
   const sums = cellSums(labels, image?.data);
+  await reference?.tick();
   const n = sums.count;
   const pts = new Float64Array(2 * n);
   const x = new Float64Array(n);
@@ -189,6 +195,7 @@ async function measureLabels(
   progress('tessellate', 0);
   const tess = tessellate(pts, field);
   progress('tessellate', 1);
+  await reference?.tick();
   const neighbours = new Int32Array(n);
   for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
   const events = opts.events ? assignEvents(opts.events, labelsInImage(labels, field), tess) : undefined;
@@ -209,6 +216,7 @@ async function measureLabels(
   };
   const columns = measureColumns(ctx, settings.pattern);
   check(opts.signal);
+  await reference?.tick();
   // Grain size before the statistics, so that it runs while the pool is drawing the reference.
   let grain: GrainSizeResult | null = null;
   let grainSummary: Record<string, unknown> | null = null;
@@ -219,18 +227,23 @@ async function measureLabels(
     grainSummary = g.summary;
     progress('grain size', 1);
     check(opts.signal);
+    await reference?.tick();
   }
   progress('statistics', 0);
   const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
   const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
+  // Voronoi-likeness needs no reference: measured while the pool finishes drawing it.
+  const imageLabels = labelsInImage(labels, field);
+  const likeness = reference ? voronoiLikeness(imageLabels, tess, sums.edge) : undefined;
   const rnd = randomness({
-    ...(reference ? await reference() : {}),
+    ...(reference ? await reference.result() : {}),
+    likeness,
     tessellation: tess,
     sides,
     area: sums.n,
     edge: sums.edge,
     bbox: bboxOf(sums, field),
-    labels: labelsInImage(labels, field),
+    labels: imageLabels,
     settings,
     neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
     minCellAreaPx: segment?.minCellAreaPx,
@@ -338,6 +351,7 @@ async function analyzePoints(points: Float64Array, width: number, height: number
   progress('tessellate', 0);
   const tess = tessellate(pts, field);
   progress('tessellate', 1);
+  await reference?.tick();
   const x = new Float64Array(n);
   const y = new Float64Array(n);
   for (let i = 0; i < n; i++) (x[i] = pts[2 * i]!), (y[i] = pts[2 * i + 1]!);
@@ -361,7 +375,7 @@ async function analyzePoints(points: Float64Array, width: number, height: number
   const columns = measureColumns(ctx, 'points');
   progress('statistics', 0);
   const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
-  const rnd = randomness({ ...(reference ? await reference() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
+  const rnd = randomness({ ...(reference ? await reference.result() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
   addRandomness(summary, rnd, settings.umPerPx);
   if (events) summary.events = eventsSummary(events, tess.area, tess.edge);
   progress('statistics', 1);

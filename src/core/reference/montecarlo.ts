@@ -282,6 +282,10 @@ export function batchBuffers(b: ReplicateBatch): ArrayBuffer[] {
   );
 }
 
+/** This thread's tessellation engine and seed array, reused from batch to batch (drawReplicates is not re-entrant). */
+let threadEngine: Tessellator | null = null;
+let threadSeeds = new Float64Array(0);
+
 /**
  * Draws replicates r0 .. r1−1 of a plan. Replicate r's seeds come from the generator seeded with
  * subSeed(seed, r) alone, so any split of the replicates into batches gives the same rows.
@@ -310,9 +314,11 @@ export function drawReplicates(plan: ReferencePlan, r0: number, r1: number, onRe
   const sqrtLambda = Math.sqrt(seeds / (RW * RH));
   let areaLength = 0;
 
-  // One engine and one seed array for all replicates: same seed count, so nothing is reallocated.
-  const engine = new Tessellator(true);
-  const pts = new Float64Array(2 * seeds);
+  // One engine and one seed array for all replicates: same seed count, so nothing is reallocated. The
+  // engine is kept for the thread's next batch too (batches of one reference have the same seed count).
+  const engine = (threadEngine ??= new Tessellator(true));
+  if (threadSeeds.length !== 2 * seeds) threadSeeds = new Float64Array(2 * seeds);
+  const pts = threadSeeds;
   for (let j = 0; j < count; j++) {
     const r = r0 + j;
     const v = j * NSTAT;

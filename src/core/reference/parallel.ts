@@ -25,12 +25,23 @@ export interface ReferenceJob {
    * @throws what planning or combining throws (SettingsError, TooFewCellsError); CancelledError on abort
    */
   result(signal?: AbortSignal): Promise<Reference>;
+  /**
+   * Lets finished batches land and the workers take their next chunks: a caller busy with other work
+   * awaits this between its steps (it resolves at once when no worker is drawing).
+   */
+  tick(): Promise<void>;
 }
 
-/** Replicates per chunk: about 16 chunks per thread, so that the threads finish close together. */
+/** Replicates per chunk: about 24 chunks per thread, so that the threads finish close together. */
 export function chunkSize(replicates: number, threads: number): number {
-  return Math.max(1, Math.ceil(replicates / (16 * Math.max(1, threads))));
+  return Math.max(1, Math.ceil(replicates / (24 * Math.max(1, threads))));
 }
+
+/**
+ * Chunks each worker holds at once: one being drawn and one waiting, so that a worker goes on while the
+ * caller's thread is busy and cannot take its finished batch yet.
+ */
+export const CHUNKS_IN_FLIGHT = 2;
 
 const nextTurn = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 0));
 
@@ -41,12 +52,12 @@ const nextTurn = (): Promise<void> => new Promise((resolve) => setTimeout(resolv
  */
 export function startReference(opts: ReferenceOptions, pool?: ReferencePool | null): ReferenceJob {
   const hit = opts.cache === false ? null : cachedReferenceFor(opts);
-  if (hit) return { result: async () => hit };
+  if (hit) return { result: async () => hit, tick: async () => {} };
   let plan: ReferencePlan;
   try {
     plan = planReference(opts);
   } catch (e) {
-    return { result: async () => Promise.reject(e) };
+    return { result: async () => Promise.reject(e), tick: async () => {} };
   }
   const R = plan.replicates;
   const workers = pool && pool.size > 0 ? pool.size : 0;
@@ -74,8 +85,10 @@ export function startReference(opts: ReferenceOptions, pool?: ReferencePool | nu
       }
     }
   };
-  const slots = Array.from({ length: workers }, slot);
+  // The pool deals its runs round robin, so CHUNKS_IN_FLIGHT slots per worker keep that many chunks at each.
+  const slots = Array.from({ length: workers * CHUNKS_IN_FLIGHT }, slot);
   return {
+    tick: () => (workers && !stopped && queue.length ? nextTurn() : Promise.resolve()),
     async result(signal?: AbortSignal): Promise<Reference> {
       try {
         for (;;) {

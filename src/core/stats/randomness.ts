@@ -15,7 +15,7 @@ import {
 } from '../reference/montecarlo';
 import { chiSquareUpper, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';
-import { voronoiLikeness } from './likeness';
+import { voronoiLikeness, type VoronoiLikeness } from './likeness';
 import {
   MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
 } from './pattern';
@@ -43,6 +43,11 @@ export interface RandomnessInput {
   reference?: Reference;
   /** Why the reference drawn beforehand could not be drawn (then none is drawn here). */
   referenceError?: string;
+  /**
+   * voronoiLikeness(labels, tessellation, edge), computed beforehand (while a reference is being drawn);
+   * computed here when absent.
+   */
+  likeness?: VoronoiLikeness;
   /** Observed neighbour graph (walls: from the segmentation), CSR; default the tessellation's. */
   neighbours?: { offsets: Int32Array; index: Int32Array };
   /** Minimum cell area (px²) the observation used; default settings.minCellAreaPx when positive and the pattern is not points. */
@@ -367,7 +372,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   }
   let likeness: RandomnessResult['voronoiLikeness'] = null;
   if (input.labels) {
-    const vl = voronoiLikeness(input.labels, t, edge);
+    const vl = input.likeness ?? voronoiLikeness(input.labels, t, edge);
     likeness = { medianOverlap: num(vl.medianOverlap), overallOverlap: num(vl.overallOverlap), stepPx: vl.stepPx };
   }
   const chi = obs.sidesChiSquare!;

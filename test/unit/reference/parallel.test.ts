@@ -89,8 +89,8 @@ describe('startReference', () => {
     ctl.abort();
     await expect(startReference(cases[0]![1], null).result(ctl.signal)).rejects.toBeInstanceOf(CancelledError);
   });
-  it('chunks: about 16 per thread, at least one replicate each', () => {
-    expect(chunkSize(199, 2)).toBe(7);
+  it('chunks: about 24 per thread, at least one replicate each', () => {
+    expect(chunkSize(199, 2)).toBe(5);
     expect(chunkSize(5, 8)).toBe(1);
   });
 });
