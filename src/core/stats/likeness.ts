@@ -22,8 +22,11 @@ export interface VoronoiLikeness {
 
 /**
  * For each labelled pixel (on a grid of `stepPx`, chosen so that at most about 4 million pixels are
- * looked at), finds the nearest centroid (Delaunay point location, walking from the previous answer) and
- * counts whether it is the pixel's own cell. Pixel centres are at (x + 0.5, y + 0.5).
+ * looked at), tests whether it lies in the Voronoi cell of its own cell's centroid: a point is in the
+ * Voronoi cell of c_i when no Delaunay neighbour of c_i is nearer (the cell is the intersection of the
+ * half-planes of its Delaunay neighbours; Okabe et al. 2000, Spatial Tessellations, property V2; pub,
+ * memory). A pixel equally far from its own centroid and a neighbour counts as inside. Pixel centres are
+ * at (x + 0.5, y + 0.5).
  *
  * @param labels the segmentation; cell k has label k + 1
  * @param t the tessellation of the cells' centroids (point k = cell k)
@@ -35,17 +38,32 @@ export function voronoiLikeness(labels: LabelImage, t: Tessellation, edge: Uint8
   const total = new Float64Array(n);
   const pixels = new Float64Array(n);
   const step = Math.max(1, Math.ceil(Math.sqrt((labels.width * labels.height) / 4e6)));
-  const delaunay = new Delaunay(t.points.slice());
-  let hint = 0;
+  const pts = t.points;
+  const { offsets, index } = delaunayNeighbours(new Delaunay(pts.slice()), n);
   const { x0, y0, x1, y1 } = t.field;
   for (let y = Math.max(0, Math.floor(y0)); y < Math.min(labels.height, Math.ceil(y1)); y += step) {
+    const py = y + 0.5;
+    const row = y * labels.width;
     for (let x = Math.max(0, Math.floor(x0)); x < Math.min(labels.width, Math.ceil(x1)); x += step) {
-      const l = labels.labels[y * labels.width + x]!;
+      const l = labels.labels[row + x]!;
       if (l <= 0 || l > n) continue;
-      const c = delaunay.find(x + 0.5, y + 0.5, hint);
-      hint = c;
-      total[l - 1]!++;
-      if (c === l - 1) inside[l - 1]!++;
+      const i = l - 1;
+      const px = x + 0.5;
+      const dx = px - pts[2 * i]!;
+      const dy = py - pts[2 * i + 1]!;
+      const own = dx * dx + dy * dy;
+      let nearest = true;
+      for (let q = offsets[i]!; q < offsets[i + 1]!; q++) {
+        const j = index[q]!;
+        const ex = px - pts[2 * j]!;
+        const ey = py - pts[2 * j + 1]!;
+        if (ex * ex + ey * ey < own) {
+          nearest = false;
+          break;
+        }
+      }
+      total[i]!++;
+      if (nearest) inside[i]!++;
     }
   }
   for (let i = 0; i < labels.labels.length; i++) {
@@ -69,4 +87,26 @@ export function voronoiLikeness(labels: LabelImage, t: Tessellation, edge: Uint8
   list.sort((a, b) => a - b);
   const med = list.length ? (list.length % 2 ? list[(list.length - 1) / 2]! : (list[list.length / 2 - 1]! + list[list.length / 2]!) / 2) : Number.NaN;
   return { overlap, areaRatio, medianOverlap: med, overallOverlap: st > 0 ? si / st : Number.NaN, stepPx: step };
+}
+
+/** The Delaunay neighbours of each point, CSR (every edge of the triangulation, both ways). */
+function delaunayNeighbours(d: Delaunay<Float64Array>, n: number): { offsets: Int32Array; index: Int32Array } {
+  const { triangles, halfedges } = d;
+  const m = triangles.length;
+  const offsets = new Int32Array(n + 1);
+  // Each halfedge e runs from triangles[e] to the next vertex of its triangle; an edge without a twin (on
+  // the hull) is counted from both ends here, so that every edge is listed at both of its points.
+  const to = (e: number): number => triangles[e % 3 === 2 ? e - 2 : e + 1]!;
+  for (let e = 0; e < m; e++) {
+    offsets[triangles[e]! + 1]!++;
+    if (halfedges[e]! < 0) offsets[to(e) + 1]!++;
+  }
+  for (let i = 0; i < n; i++) offsets[i + 1] = offsets[i + 1]! + offsets[i]!;
+  const fill = offsets.slice(0, n);
+  const index = new Int32Array(offsets[n]!);
+  for (let e = 0; e < m; e++) {
+    index[fill[triangles[e]!]!++] = to(e);
+    if (halfedges[e]! < 0) index[fill[to(e)]!++] = triangles[e]!;
+  }
+  return { offsets, index };
 }
