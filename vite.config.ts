@@ -26,6 +26,9 @@ export default defineConfig({
   plugins: [svelte(), cspHeaders()],
   base: './',
   worker: { format: 'es' },
+  // The dev server's dependency scan also reads the workers, so that it bundles their dependencies at
+  // start-up instead of finding them mid-analysis and reloading the page.
+  optimizeDeps: { entries: ['index.html', 'workers/*.worker.ts'] },
   build: { target: 'es2022', chunkSizeWarningLimit: 12000 },
   server: { host: '127.0.0.1', port: 5173 },
   preview: { host: '127.0.0.1', port: 4173 },
