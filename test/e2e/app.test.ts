@@ -398,6 +398,46 @@ describe('Tessellab web app', () => {
     expect(html).toMatch(/http-equiv="Content-Security-Policy"[\s\S]*connect-src 'self'/);
   });
 
+  it('a reload before the demo\'s bytes were stored fetches the demo again instead of failing', async () => {
+    // A fresh profile of its own; the stored copy of the demo is deleted, as when the page reloads before
+    // the worker has written it (seen on a cold development server).
+    const b = await launch();
+    try {
+      const p = b.context.pages()[0] ?? (await b.context.newPage());
+      await p.goto(url);
+      const doneCount = () => p.evaluate(() => {
+        const e = (globalThis as unknown as Win).__tessellab?.entries[0];
+        return e && (e.status === 'done' || e.status === 'error') ? { status: e.status, count: e.count, error: e.error } : null;
+      });
+      await expect.poll(doneCount, { timeout: 90_000 }).not.toBeNull();
+      const first = (await doneCount())!;
+      expect(first.status).toBe('done');
+      const removed = await p.evaluate(() => new Promise<number>((resolve, reject) => {
+        const req = indexedDB.open('tessellab');
+        req.onerror = () => reject(req.error);
+        req.onsuccess = () => {
+          const db = req.result;
+          const tx = db.transaction(['images', 'results', 'base'], 'readwrite');
+          const images = tx.objectStore('images');
+          const count = images.count();
+          images.clear();
+          tx.objectStore('results').clear();
+          tx.objectStore('base').clear();
+          tx.oncomplete = () => { db.close(); resolve(count.result); };
+          tx.onerror = () => reject(tx.error);
+        };
+      }));
+      expect(removed).toBe(1);
+      await p.reload();
+      await expect.poll(doneCount, { timeout: 90_000 }).not.toBeNull();
+      const again = (await doneCount())!;
+      expect(again.error).toBeNull();
+      expect(again).toEqual(first);
+    } finally {
+      await b.close();
+    }
+  });
+
   it('makes no request beyond its own origin, and no page error occurred', () => {
     const origin = new URL(url).origin;
     const outside = requests.filter((r) => !r.startsWith(origin) && !r.startsWith('data:') && !r.startsWith('blob:') && !r.startsWith('http://127.0.0.2:9/'));

@@ -154,8 +154,12 @@ export class AppState {
     return this.entries.find((e) => e.id === this.selectedId) ?? null;
   }
 
+  /** Fetches the demo image (the app's own), kept for an entry whose stored copy was never written. */
+  private demoLoader: (() => Promise<{ name: string; bytes: Uint8Array } | null>) | null = null;
+
   /** Restores the stored session, or adds the demo on a first visit. */
   async init(demo: () => Promise<{ name: string; bytes: Uint8Array; umPerPx: number | null; settings?: Partial<Settings> } | null>): Promise<void> {
+    this.demoLoader = demo;
     this.warmUp();
     let stored: StoredEntry[] = [];
     try {
@@ -477,7 +481,15 @@ export class AppState {
     if (e.opening) return e.opening;
     const p = (async () => {
       const first = !e.opened;
-      const r = await this.bridge.open(e.id, e.name, e.bytes, WEB_MAX_PIXELS);
+      let r: Awaited<ReturnType<Bridge['open']>>;
+      try {
+        r = await this.bridge.open(e.id, e.name, e.bytes, WEB_MAX_PIXELS);
+      } catch (err) {
+        // A reload before the worker had stored the demo's bytes: the demo is the app's own, fetch it again.
+        const again = e.bytes ? null : await this.demoBytes(e.name);
+        if (!again) throw err;
+        r = await this.bridge.open(e.id, e.name, again, WEB_MAX_PIXELS);
+      }
       e.bytes = null;
       e.opened = true;
       e.kind = r.kind;
@@ -492,6 +504,16 @@ export class AppState {
     e.opening = p;
     void p.then(() => { e.opening = null; }, () => { e.opening = null; });
     return p;
+  }
+
+  /** The demo image's bytes when `name` is the demo's, else null (also when it cannot be fetched). */
+  private async demoBytes(name: string): Promise<Uint8Array | null> {
+    try {
+      const d = await this.demoLoader?.();
+      return d && d.name === name ? d.bytes : null;
+    } catch {
+      return null;
+    }
   }
 
   /** Computes the grain size of an entry's current result once (the Grain size panel calls it). */
