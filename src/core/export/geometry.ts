@@ -5,39 +5,48 @@
  */
 import type { Analysis } from '../analysis.types';
 import type { Polygons } from '../cv/contours';
-import { drawCentroids, drawPolygons, drawVoronoi, SvgPath } from './path';
+import { drawCentroids, drawPolygons, drawVoronoi, r2, SvgPath } from './path';
 import { formatNumber } from './csv';
-
-function props(analysis: Analysis, i: number): Record<string, number> {
-  const out: Record<string, number> = {};
-  for (const [k, col] of Object.entries(analysis.columns)) {
-    const v = col[i]!;
-    out[k] = Number.isFinite(v) ? Number(formatNumber(v)) : (null as unknown as number);
-  }
-  return out;
-}
 
 /**
  * cells.geojson: a FeatureCollection with, per cell, a Polygon feature (the segmented outline, or the
  * Voronoi cell for a points pattern) and a Point feature (the centroid), both carrying the table's row.
+ * Properties are the table's values as cells.csv prints them (formatNumber; null where not finite),
+ * coordinates rounded to 0.01 px. The text is written directly, as JSON.stringify would write the same
+ * objects (numbers as String gives them), without building a million objects first.
  */
 export function cellsGeoJson(analysis: Analysis, outlines: Polygons | null): string {
   const t = analysis.tessellation;
   const polys = outlines ?? { offsets: t.polygonOffsets, coords: t.polygonCoords };
-  const features: unknown[] = [];
   const n = t.points.length / 2;
-  const r = (v: number) => Math.round(v * 100) / 100;
+  const names = Object.keys(analysis.columns);
+  const cols = names.map((k) => analysis.columns[k]!);
+  // Keys as JSON writes them; a column called "kind" would be overwritten in place by the feature kind.
+  const keys = names.map((k) => `${JSON.stringify(k)}:`);
+  const kindAt = names.indexOf('kind');
+  const parts: string[] = [];
+  const coords = polys.coords;
   for (let i = 0; i < n; i++) {
     const a = polys.offsets[i]!;
     const b = polys.offsets[i + 1]!;
-    const ring: [number, number][] = [];
-    for (let k = a; k < b; k++) ring.push([r(polys.coords[2 * k]!), r(polys.coords[2 * k + 1]!)]);
-    if (ring.length > 0) ring.push(ring[0]!);
-    const p = props(analysis, i);
-    if (ring.length >= 4) features.push({ type: 'Feature', properties: { ...p, kind: 'outline' }, geometry: { type: 'Polygon', coordinates: [ring] } });
-    features.push({ type: 'Feature', properties: { cell: i + 1, kind: 'centroid' }, geometry: { type: 'Point', coordinates: [r(t.points[2 * i]!), r(t.points[2 * i + 1]!)] } });
+    if (b - a >= 3) {
+      // Pieces joined once per feature: one flat string each, not a rope of hundreds of small ones.
+      const f: string[] = ['{"type":"Feature","properties":{'];
+      for (let c = 0; c < cols.length; c++) {
+        const v = cols[c]![i]!;
+        if (c) f.push(',');
+        f.push(keys[c]!, c === kindAt ? '"outline"' : Number.isFinite(v) ? formatNumber(v) : 'null');
+      }
+      if (kindAt < 0) f.push(cols.length ? ',"kind":"outline"' : '"kind":"outline"');
+      f.push('},"geometry":{"type":"Polygon","coordinates":[[');
+      for (let k = a; k < b; k++) f.push('[', r2(coords[2 * k]!), ',', r2(coords[2 * k + 1]!), '],');
+      f.push('[', r2(coords[2 * a]!), ',', r2(coords[2 * a + 1]!), ']]]}}');
+      parts.push(f.join(''));
+    }
+    parts.push(`{"type":"Feature","properties":{"cell":${i + 1},"kind":"centroid"},"geometry":{"type":"Point","coordinates":[${r2(t.points[2 * i]!)},${r2(t.points[2 * i + 1]!)}]}}`);
   }
-  return JSON.stringify({ type: 'FeatureCollection', properties: { units: 'px', umPerPx: analysis.settings.umPerPx, width: analysis.width, height: analysis.height }, features }) + '\n';
+  const head = JSON.stringify({ type: 'FeatureCollection', properties: { units: 'px', umPerPx: analysis.settings.umPerPx, width: analysis.width, height: analysis.height } });
+  return `${head.slice(0, -1)},"features":[${parts.join(',')}]}\n`;
 }
 
 export interface OverlayStyle {

@@ -76,6 +76,22 @@ export class SvgPath implements PathSink {
   }
 }
 
-function r2(v: number): string {
-  return String(Math.round(v * 100) / 100);
+/**
+ * String(Math.round(v * 100) / 100), written from the whole number of hundredths: the decimal with at most
+ * two fraction digits is the shortest that reads back as that double (the quotient of two exact integers
+ * is correctly rounded, and any other decimal of as few digits lies at least 0.01 away), which is what
+ * String gives (ECMA-262 Number::toString), so the text is the same, several times faster.
+ * Values of 2^53 hundredths (9·10^13 px) and more, or not finite, go through String.
+ */
+export function r2(v: number): string {
+  const k = Math.round(v * 100);
+  if (!Number.isSafeInteger(k)) return String(k / 100);
+  if (k === 0) return '0';
+  const a = k < 0 ? -k : k;
+  const whole = Math.floor(a / 100);
+  const frac = a - whole * 100;
+  const sign = k < 0 ? '-' : '';
+  if (frac === 0) return sign + whole;
+  if (frac % 10 === 0) return `${sign}${whole}.${frac / 10}`;
+  return `${sign}${whole}.${frac < 10 ? '0' : ''}${frac}`;
 }
