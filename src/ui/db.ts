@@ -32,6 +32,8 @@ export interface StoredEntry {
   umPerPxFromFile: number | null;
   /** Cell count of the last result (shown in the list before the result is restored). */
   count: number | null;
+  /** The cells are a kinetics series' final mosaic (kept as they are: never segmented again). */
+  fromMosaic?: boolean;
 }
 
 /** Layers of the Bench. */

@@ -151,6 +151,28 @@ describe('Kinetics panel', () => {
     expect(s.status).toBe('done');
     const ref = JSON.parse(readFileSync(join(cliOut, 'final.summary.json'), 'utf8')) as { summary: { cells: { count: number } } };
     expect(s.count).toBe(ref.summary.cells.count);
+    // Detection does not apply to a mosaic: its controls are off, and a detection change keeps the mosaic.
+    await page.getByTestId('entry').filter({ hasText: name }).locator('button.pick').click();
+    await page.getByRole('tab', { name: 'Detect' }).click();
+    await expect.poll(() => page.getByTestId('mosaic-note').count()).toBe(1);
+    expect(await page.locator('#w-smooth').isDisabled()).toBe(true);
+    type Mosaic = { __tessellab: { entries: { name: string; result: unknown; error: string | null }[]; changed(e: unknown, what: string): void }; __before?: unknown };
+    await page.evaluate((n) => {
+      const g = globalThis as unknown as Mosaic;
+      const e = g.__tessellab.entries.find((x) => x.name === n)!;
+      g.__before = e.result;
+      g.__tessellab.changed(e, 'segment');
+    }, name);
+    // Wait for the new result (the entry is analysed again) or an error, then read it.
+    await page.waitForFunction((n) => {
+      const g = globalThis as unknown as Mosaic;
+      const e = g.__tessellab.entries.find((x) => x.name === n)!;
+      return (e.result !== g.__before && e.result !== null) || e.error !== null;
+    }, name, { timeout: 60_000 });
+    const again = await settled(name);
+    expect(again.error).toBeNull();
+    expect(again.status).toBe('done');
+    expect(again.count).toBe(ref.summary.cells.count);
     await page.getByRole('tab', { name: 'Randomness' }).click();
     await expect.poll(() => page.getByTestId('verdict').textContent(), { timeout: 30_000 }).toMatch(/more regular than random|consistent with random seeding|more irregular than random/);
     await page.screenshot({ path: join(SCREENSHOTS, '23-kinetics-final-randomness.png') });

@@ -73,6 +73,8 @@ export class Entry {
   /** Grain size of `result` (computed when the Grain size panel asks), or its error. */
   grain = $state.raw<{ of: AnalysisResult; value: GrainResult | null; error: string | null } | null>(null);
   storedCount = $state<number | null>(null);
+  /** The cells are a kinetics series' final mosaic: they are measured, edited and exported, never segmented again. */
+  fromMosaic = false;
   /** File bytes until the worker has stored them. */
   bytes: Uint8Array | null = null;
   opened = false;
@@ -104,7 +106,7 @@ export class Entry {
       settings: $state.snapshot(this.settings) as Settings, ops: this.ops, redo: this.redo,
       status: this.status === 'done' || this.status === 'error' ? this.status : 'queued',
       error: this.error, width: this.width, height: this.height, umPerPxFromFile: this.umPerPxFromFile,
-      count: this.count,
+      count: this.count, fromMosaic: this.fromMosaic,
     };
   }
 }
@@ -178,7 +180,7 @@ export class AppState {
     for (const r of stored) {
       const e = new Entry(r.id, r.name);
       e.kind = r.kind; e.order = r.order; e.settings = r.settings; e.ops = r.ops; e.redo = r.redo;
-      e.width = r.width; e.height = r.height; e.umPerPxFromFile = r.umPerPxFromFile; e.storedCount = r.count;
+      e.width = r.width; e.height = r.height; e.umPerPxFromFile = r.umPerPxFromFile; e.storedCount = r.count; e.fromMosaic = r.fromMosaic ?? false;
       e.status = r.status === 'error' ? 'error' : 'queued';
       e.error = r.error;
       this.entries.push(e);
@@ -252,6 +254,7 @@ export class AppState {
   addPrepared(id: string, name: string, bytes: Uint8Array, settings: Partial<Settings>): Entry {
     const e = new Entry(id, name);
     e.bytes = bytes;
+    e.fromMosaic = true;
     e.order = this.entries.length ? Math.max(...this.entries.map((x) => x.order)) + 1 : 0;
     Object.assign(e.settings, settings);
     this.entries.push(e);
@@ -295,6 +298,11 @@ export class AppState {
 
   /** Settings changed: segment again (clears edits) or only re-measure (scale). */
   changed(e: Entry, what: 'segment' | 'measure'): void {
+    if (what === 'segment' && e.fromMosaic) {
+      // Segmenting the frame again would replace the mosaic the series grew: keep it, say so.
+      e.notice = 'These cells are the final mosaic of the kinetics series, so detection settings do not change them: edit cells in the Cells panel, or run the series again with other settings.';
+      what = 'measure';
+    }
     if (what === 'segment' && e.ops.length) {
       e.notice = `${e.ops.length} edit${e.ops.length > 1 ? 's were' : ' was'} cleared by the new detection.`;
       e.ops = [];
@@ -424,7 +432,8 @@ export class AppState {
         e.stage = 'Restoring the result';
         const r = await this.bridge.restore(e.id);
         if (r) { this.accept(e, r); return; }
-        mode = 'segment';
+        // A mosaic's labels are kept by the worker: measure them again rather than segment the frame.
+        mode = e.fromMosaic ? 'measure' : 'segment';
       }
       e.status = 'analysing';
       e.stage = 'Starting';
@@ -533,7 +542,7 @@ export class AppState {
   retry(e: Entry): void {
     e.error = null;
     e.notice = null;
-    this.request(e, e.result ? 'measure' : 'segment', undefined, true);
+    this.request(e, e.result || e.fromMosaic ? 'measure' : 'segment', undefined, true);
   }
 
   save(e: Entry): void {
