@@ -2,11 +2,8 @@
  * The files of a kinetics run (`tessellab kinetics` and the web app's Kinetics panel write the same bytes):
  * kinetics.csv, one row per frame with the units in the column names, and kinetics.json, the whole result.
  */
+import Papa from 'papaparse';
 import type { KineticsResult } from '../kinetics/types';
-
-function csvCell(s: string): string {
-  return /[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
 
 /**
  * kinetics.csv: one row per frame (frame, file, time, fraction, domains, mean domain area, new domains),
@@ -18,11 +15,9 @@ function csvCell(s: string): string {
 export function kineticsCsv(r: KineticsResult): string {
   const areaCol = r.areaUnit === 'µm²' ? 'mean_domain_area_um2' : 'mean_domain_area_px2';
   const unit = r.timeUnit.replace(/[^A-Za-z0-9]/g, '') || 'unit';
-  const lines = [`frame,file,time_${unit},fraction,domains,${areaCol},new_domains`];
-  for (const f of r.frames) {
-    lines.push([f.frame, csvCell(f.source), f.time, f.fraction, f.domains, f.meanDomainArea ?? '', f.newDomains].join(','));
-  }
-  return lines.join('\n') + '\n';
+  const fields = ['frame', 'file', `time_${unit}`, 'fraction', 'domains', areaCol, 'new_domains'];
+  const data = r.frames.map((f) => [f.frame, f.source, f.time, f.fraction, f.domains, f.meanDomainArea ?? '', f.newDomains]);
+  return Papa.unparse({ fields, data }, { newline: '\n' }) + '\n';
 }
 
 /**
