@@ -146,11 +146,17 @@ export async function reanalyzeLabels(
 function startReferenceFor(settings: Settings, cells: number, field: Rect, minCellAreaPx: number | undefined, opts: AnalyzeOptions) {
   const refOpts = referenceOptionsFor(settings, cells, field, minCellAreaPx);
   if (!refOpts) return null;
-  const job = startReference(refOpts, opts.referencePool);
+  // While the analysis waits for it, the reference's progress is the statistics stage's (up to 90 %).
+  let waiting = false;
+  const onProgress = (f: number): void => {
+    if (waiting) opts.onProgress?.('statistics', 0.9 * f);
+  };
+  const job = startReference({ ...refOpts, onProgress }, opts.referencePool);
   return {
     /** Between the analysis's steps: the reference's workers take their next chunks. */
     tick: () => job.tick(),
     async result(): Promise<{ reference?: Reference; referenceError?: string }> {
+      waiting = true;
       try {
         return { reference: await job.result(opts.signal) };
       } catch (e) {

@@ -18,11 +18,20 @@ describe('reference threads change nothing in the results', () => {
   it('walls image: the same summary.json with and without the pool', async () => {
     const img = synthesize({ pattern: 'walls', cells: 400, width: 700, height: 600, order: 'random', seed: 8 }).image;
     clearReferenceCache();
-    const one = await analyze({ kind: 'image', image: img }, settings);
+    const own: number[] = [];
+    const one = await analyze({ kind: 'image', image: img }, settings, { onProgress: (s, f) => s === 'statistics' && own.push(f) });
+    // Drawn on this thread while the analysis waits: the fraction moves through the stage.
+    expect(own.filter((f) => f > 0 && f < 1).length).toBeGreaterThan(5);
+    expect(own.every((f, k) => k === 0 || f >= own[k - 1]!)).toBe(true);
     clearReferenceCache();
-    const many = await analyze({ kind: 'image', image: img }, settings, { referencePool: pool });
+    const stats: number[] = [];
+    const many = await analyze({ kind: 'image', image: img }, settings, { referencePool: pool, onProgress: (s, f) => s === 'statistics' && stats.push(f) });
     expect((many.summary.randomness as { reference: { R: number } }).reference.R).toBe(39);
     expect(summaryJson(many)).toBe(summaryJson(one));
+    // The wait for the reference moves the statistics stage's progress (common practice: progress on long work).
+    expect(stats[0]).toBe(0);
+    expect(stats.at(-1)).toBe(1);
+    expect(stats.every((f, k) => k === 0 || f >= stats[k - 1]!)).toBe(true);
   });
 
   it('points: the same summary.json with and without the pool', async () => {
