@@ -155,6 +155,8 @@ function startReferenceFor(settings: Settings, cells: number, field: Rect, minCe
   return {
     /** Between the analysis's steps: the reference's workers take their next chunks. */
     tick: () => job.tick(),
+    /** The analysis stopped before it needed the reference. */
+    cancel: () => job.cancel(),
     async result(): Promise<{ reference?: Reference; referenceError?: string }> {
       waiting = true;
       try {
@@ -184,6 +186,29 @@ async function measureLabels(
   }
   // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile.
   const reference = startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts);
+  try {
+    return await measureCells(labels, image, field, width, height, settings, opts, segment, reference);
+  } catch (e) {
+    reference?.cancel();
+    throw e;
+  }
+}
+
+type ReferenceStart = ReturnType<typeof startReferenceFor>;
+
+/** The cells of a label image after its checks: sums, tessellation, columns, grain size and statistics. */
+async function measureCells(
+  labels: LabelImage,
+  image: GreyImage | null,
+  field: Rect,
+  width: number,
+  height: number,
+  settings: Settings,
+  opts: AnalyzeOptions,
+  segment: SegmentInfo | null,
+  reference: ReferenceStart,
+): Promise<Analysis> {
+  const progress = opts.onProgress ?? (() => {});
   const sums = cellSums(labels, image?.data);
   await reference?.tick();
   const n = sums.count;
@@ -343,7 +368,6 @@ function addRandomness(summary: Summary, r: RandomnessResult, umPerPx: number | 
 }
 
 async function analyzePoints(points: Float64Array, width: number, height: number, settings: Settings, opts: AnalyzeOptions): Promise<Analysis> {
-  const progress = opts.onProgress ?? (() => {});
   let pts = points;
   if (settings.points.units === 'um') {
     if (settings.umPerPx === null) settings.umPerPx = 1;
@@ -354,6 +378,25 @@ async function analyzePoints(points: Float64Array, width: number, height: number
   const n = pts.length / 2;
   if (n < 3) throw new TooFewCellsError(`Only ${n} point${n === 1 ? '' : 's'}; the tessellation needs at least 3.`);
   const reference = startReferenceFor(settings, n, field, undefined, opts);
+  try {
+    return await tessellatePoints(pts, n, field, width, height, settings, opts, reference);
+  } catch (e) {
+    reference?.cancel();
+    throw e;
+  }
+}
+
+async function tessellatePoints(
+  pts: Float64Array,
+  n: number,
+  field: Rect,
+  width: number,
+  height: number,
+  settings: Settings,
+  opts: AnalyzeOptions,
+  reference: ReferenceStart,
+): Promise<Analysis> {
+  const progress = opts.onProgress ?? (() => {});
   progress('tessellate', 0);
   const tess = tessellate(pts, field);
   progress('tessellate', 1);

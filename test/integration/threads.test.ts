@@ -4,6 +4,8 @@
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { analyze } from '../../src/core/analyze';
+import { CancelledError } from '../../src/core/errors';
+import type { ReferencePool } from '../../src/core/reference/parallel';
 import { summaryJson } from '../../src/core/export/index';
 import { clearReferenceCache } from '../../src/core/reference/montecarlo';
 import { synthesize } from '../../src/core/synth/index';
@@ -32,6 +34,22 @@ describe('reference threads change nothing in the results', () => {
     expect(stats[0]).toBe(0);
     expect(stats.at(-1)).toBe(1);
     expect(stats.every((f, k) => k === 0 || f >= stats[k - 1]!)).toBe(true);
+  });
+
+  it('an analysis cancelled before its statistics stops its reference: the pool draws no further chunk', async () => {
+    const img = synthesize({ pattern: 'walls', cells: 400, width: 700, height: 600, order: 'random', seed: 9 }).image;
+    let calls = 0;
+    const counting: ReferencePool = { size: pool.size, run: (plan, r0, r1) => (calls++, pool.run(plan, r0, r1)) };
+    const ctl = new AbortController();
+    clearReferenceCache();
+    const run = analyze({ kind: 'image', image: img }, { ...settings, reference: { replicates: 199, seed: 4 } }, {
+      referencePool: counting, signal: ctl.signal, onProgress: (s, f) => s === 'measure' && f === 1 && ctl.abort(),
+    });
+    await expect(run).rejects.toBeInstanceOf(CancelledError);
+    const atCancel = calls;
+    await new Promise((r) => setTimeout(r, 300));
+    expect(atCancel).toBeGreaterThan(0);
+    expect(calls).toBe(atCancel);
   });
 
   it('points: the same summary.json with and without the pool', async () => {

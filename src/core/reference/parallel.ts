@@ -30,6 +30,8 @@ export interface ReferenceJob {
    * awaits this between its steps (it resolves at once when no worker is drawing).
    */
   tick(): Promise<void>;
+  /** Gives the reference up (the analysis failed or was cancelled): the workers take no further chunk. */
+  cancel(): void;
 }
 
 /** Replicates per chunk: about 24 chunks per thread, so that the threads finish close together. */
@@ -52,12 +54,12 @@ const nextTurn = (): Promise<void> => new Promise((resolve) => setTimeout(resolv
  */
 export function startReference(opts: ReferenceOptions, pool?: ReferencePool | null): ReferenceJob {
   const hit = opts.cache === false ? null : cachedReferenceFor(opts);
-  if (hit) return { result: async () => hit, tick: async () => {} };
+  if (hit) return { result: async () => hit, tick: async () => {}, cancel: () => {} };
   let plan: ReferencePlan;
   try {
     plan = planReference(opts);
   } catch (e) {
-    return { result: async () => Promise.reject(e), tick: async () => {} };
+    return { result: async () => Promise.reject(e), tick: async () => {}, cancel: () => {} };
   }
   const R = plan.replicates;
   const workers = pool && pool.size > 0 ? pool.size : 0;
@@ -89,6 +91,9 @@ export function startReference(opts: ReferenceOptions, pool?: ReferencePool | nu
   const slots = Array.from({ length: workers * CHUNKS_IN_FLIGHT }, slot);
   return {
     tick: () => (workers && !stopped && queue.length ? nextTurn() : Promise.resolve()),
+    cancel: () => {
+      stopped = true;
+    },
     async result(signal?: AbortSignal): Promise<Reference> {
       try {
         for (;;) {

@@ -9,7 +9,7 @@ import { CancelledError, SettingsError, TooFewCellsError } from '../../../src/co
 import {
   combineReplicates, drawReplicates, planReference, referenceMonteCarlo, referenceSummary, type ReferenceOptions, type ReferencePlan, type ReplicateBatch,
 } from '../../../src/core/reference/montecarlo';
-import { chunkSize, startReference, type ReferencePool } from '../../../src/core/reference/parallel';
+import { CHUNKS_IN_FLIGHT, chunkSize, startReference, type ReferencePool } from '../../../src/core/reference/parallel';
 import { createNodeReferencePool } from '../../../src/node/referencePool';
 
 const bytes = (r: ReturnType<typeof referenceMonteCarlo>) => JSON.stringify(referenceSummary(r, { includeValues: true }));
@@ -88,6 +88,16 @@ describe('startReference', () => {
     const ctl = new AbortController();
     ctl.abort();
     await expect(startReference(cases[0]![1], null).result(ctl.signal)).rejects.toBeInstanceOf(CancelledError);
+  });
+  it('a cancelled job gives its workers no further chunk', async () => {
+    const pool = fakePool(1);
+    const job = startReference(cases[1]![1], pool);
+    const started = pool.calls;
+    job.cancel();
+    await new Promise((r) => setTimeout(r, 60));
+    // The chunks already sent land; no slot takes another.
+    expect(started).toBe(CHUNKS_IN_FLIGHT);
+    expect(pool.calls).toBe(started);
   });
   it('chunks: about 24 per thread, at least one replicate each', () => {
     expect(chunkSize(199, 2)).toBe(5);
