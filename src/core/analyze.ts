@@ -187,103 +187,86 @@ async function measureLabels(
   // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile.
   const reference = startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts);
   try {
-    return await measureCells(labels, image, field, width, height, settings, opts, segment, reference);
+    const sums = cellSums(labels, image?.data);
+    await reference?.tick();
+    const n = sums.count;
+    const pts = new Float64Array(2 * n);
+    const x = new Float64Array(n);
+    const y = new Float64Array(n);
+    for (let c = 0; c < n; c++) {
+      x[c] = sums.cx[c]! + field.x0;
+      y[c] = sums.cy[c]! + field.y0;
+      pts[2 * c] = x[c]!;
+      pts[2 * c + 1] = y[c]!;
+    }
+    progress('measure', 1);
+    check(opts.signal);
+    progress('tessellate', 0);
+    const tess = tessellate(pts, field);
+    progress('tessellate', 1);
+    await reference?.tick();
+    const neighbours = new Int32Array(n);
+    for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
+    const events = opts.events ? assignEvents(opts.events, labelsInImage(labels, field), tess) : undefined;
+    const ctx: MeasureContext = {
+      count: n,
+      umPerPx: settings.umPerPx,
+      offsetX: field.x0,
+      offsetY: field.y0,
+      sums,
+      x,
+      y,
+      voronoiArea: tess.area,
+      voronoiSides: tess.sides,
+      edge: sums.edge,
+      neighbours,
+      events,
+      hasIntensity: !!image,
+    };
+    const columns = measureColumns(ctx, settings.pattern);
+    check(opts.signal);
+    await reference?.tick();
+    // Grain size before the statistics, so that it runs while the pool is drawing the reference.
+    let grain: GrainSizeResult | null = null;
+    let grainSummary: Record<string, unknown> | null = null;
+    if (settings.pattern === 'walls') {
+      progress('grain size', 0);
+      const g = rateGrainSize(labels, field, settings);
+      grain = g.result;
+      grainSummary = g.summary;
+      progress('grain size', 1);
+      check(opts.signal);
+      await reference?.tick();
+    }
+    progress('statistics', 0);
+    const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
+    const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
+    // Voronoi-likeness needs no reference: measured while the pool finishes drawing it.
+    const imageLabels = labelsInImage(labels, field);
+    const likeness = reference ? voronoiLikeness(imageLabels, tess, sums.edge) : undefined;
+    const rnd = randomness({
+      ...(reference ? await reference.result() : {}),
+      likeness,
+      tessellation: tess,
+      sides,
+      area: sums.n,
+      edge: sums.edge,
+      bbox: bboxOf(sums, field),
+      labels: imageLabels,
+      settings,
+      neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
+      minCellAreaPx: segment?.minCellAreaPx,
+    });
+    addRandomness(summary, rnd, settings.umPerPx);
+    if (events) summary.events = eventsSummary(events, sums.n, sums.edge);
+    if (grainSummary) summary.grainSize = grainSummary;
+    progress('statistics', 1);
+    return { width, height, field, settings, labels, columns, tessellation: tess, summary, grain, randomness: rnd };
   } catch (e) {
+    // Failed or cancelled before the statistics: the workers need not draw the rest.
     reference?.cancel();
     throw e;
   }
-}
-
-type ReferenceStart = ReturnType<typeof startReferenceFor>;
-
-/** The cells of a label image after its checks: sums, tessellation, columns, grain size and statistics. */
-async function measureCells(
-  labels: LabelImage,
-  image: GreyImage | null,
-  field: Rect,
-  width: number,
-  height: number,
-  settings: Settings,
-  opts: AnalyzeOptions,
-  segment: SegmentInfo | null,
-  reference: ReferenceStart,
-): Promise<Analysis> {
-  const progress = opts.onProgress ?? (() => {});
-  const sums = cellSums(labels, image?.data);
-  await reference?.tick();
-  const n = sums.count;
-  const pts = new Float64Array(2 * n);
-  const x = new Float64Array(n);
-  const y = new Float64Array(n);
-  for (let c = 0; c < n; c++) {
-    x[c] = sums.cx[c]! + field.x0;
-    y[c] = sums.cy[c]! + field.y0;
-    pts[2 * c] = x[c]!;
-    pts[2 * c + 1] = y[c]!;
-  }
-  progress('measure', 1);
-  check(opts.signal);
-  progress('tessellate', 0);
-  const tess = tessellate(pts, field);
-  progress('tessellate', 1);
-  await reference?.tick();
-  const neighbours = new Int32Array(n);
-  for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
-  const events = opts.events ? assignEvents(opts.events, labelsInImage(labels, field), tess) : undefined;
-  const ctx: MeasureContext = {
-    count: n,
-    umPerPx: settings.umPerPx,
-    offsetX: field.x0,
-    offsetY: field.y0,
-    sums,
-    x,
-    y,
-    voronoiArea: tess.area,
-    voronoiSides: tess.sides,
-    edge: sums.edge,
-    neighbours,
-    events,
-    hasIntensity: !!image,
-  };
-  const columns = measureColumns(ctx, settings.pattern);
-  check(opts.signal);
-  await reference?.tick();
-  // Grain size before the statistics, so that it runs while the pool is drawing the reference.
-  let grain: GrainSizeResult | null = null;
-  let grainSummary: Record<string, unknown> | null = null;
-  if (settings.pattern === 'walls') {
-    progress('grain size', 0);
-    const g = rateGrainSize(labels, field, settings);
-    grain = g.result;
-    grainSummary = g.summary;
-    progress('grain size', 1);
-    check(opts.signal);
-    await reference?.tick();
-  }
-  progress('statistics', 0);
-  const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
-  const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
-  // Voronoi-likeness needs no reference: measured while the pool finishes drawing it.
-  const imageLabels = labelsInImage(labels, field);
-  const likeness = reference ? voronoiLikeness(imageLabels, tess, sums.edge) : undefined;
-  const rnd = randomness({
-    ...(reference ? await reference.result() : {}),
-    likeness,
-    tessellation: tess,
-    sides,
-    area: sums.n,
-    edge: sums.edge,
-    bbox: bboxOf(sums, field),
-    labels: imageLabels,
-    settings,
-    neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
-    minCellAreaPx: segment?.minCellAreaPx,
-  });
-  addRandomness(summary, rnd, settings.umPerPx);
-  if (events) summary.events = eventsSummary(events, sums.n, sums.edge);
-  if (grainSummary) summary.grainSize = grainSummary;
-  progress('statistics', 1);
-  return { width, height, field, settings, labels, columns, tessellation: tess, summary, grain, randomness: rnd };
 }
 
 /**
@@ -378,57 +361,45 @@ async function analyzePoints(points: Float64Array, width: number, height: number
   const n = pts.length / 2;
   if (n < 3) throw new TooFewCellsError(`Only ${n} point${n === 1 ? '' : 's'}; the tessellation needs at least 3.`);
   const reference = startReferenceFor(settings, n, field, undefined, opts);
+  const progress = opts.onProgress ?? (() => {});
   try {
-    return await tessellatePoints(pts, n, field, width, height, settings, opts, reference);
+    progress('tessellate', 0);
+    const tess = tessellate(pts, field);
+    progress('tessellate', 1);
+    await reference?.tick();
+    const x = new Float64Array(n);
+    const y = new Float64Array(n);
+    for (let i = 0; i < n; i++) (x[i] = pts[2 * i]!), (y[i] = pts[2 * i + 1]!);
+    const neighbours = new Int32Array(n);
+    for (let i = 0; i < n; i++) neighbours[i] = tess.neighbourOffsets[i + 1]! - tess.neighbourOffsets[i]!;
+    const events = opts.events ? assignEvents(opts.events, null, tess) : undefined;
+    const ctx: MeasureContext = {
+      count: n,
+      umPerPx: settings.umPerPx,
+      offsetX: 0,
+      offsetY: 0,
+      x,
+      y,
+      voronoiArea: tess.area,
+      voronoiSides: tess.sides,
+      edge: tess.edge,
+      neighbours,
+      events,
+      hasIntensity: false,
+    };
+    const columns = measureColumns(ctx, 'points');
+    progress('statistics', 0);
+    const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
+    const rnd = randomness({ ...(reference ? await reference.result() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
+    addRandomness(summary, rnd, settings.umPerPx);
+    if (events) summary.events = eventsSummary(events, tess.area, tess.edge);
+    progress('statistics', 1);
+    return { width, height, field, settings, labels: null, columns, tessellation: tess, summary, randomness: rnd };
   } catch (e) {
+    // Failed or cancelled before the statistics: the workers need not draw the rest.
     reference?.cancel();
     throw e;
   }
-}
-
-async function tessellatePoints(
-  pts: Float64Array,
-  n: number,
-  field: Rect,
-  width: number,
-  height: number,
-  settings: Settings,
-  opts: AnalyzeOptions,
-  reference: ReferenceStart,
-): Promise<Analysis> {
-  const progress = opts.onProgress ?? (() => {});
-  progress('tessellate', 0);
-  const tess = tessellate(pts, field);
-  progress('tessellate', 1);
-  await reference?.tick();
-  const x = new Float64Array(n);
-  const y = new Float64Array(n);
-  for (let i = 0; i < n; i++) (x[i] = pts[2 * i]!), (y[i] = pts[2 * i + 1]!);
-  const neighbours = new Int32Array(n);
-  for (let i = 0; i < n; i++) neighbours[i] = tess.neighbourOffsets[i + 1]! - tess.neighbourOffsets[i]!;
-  const events = opts.events ? assignEvents(opts.events, null, tess) : undefined;
-  const ctx: MeasureContext = {
-    count: n,
-    umPerPx: settings.umPerPx,
-    offsetX: 0,
-    offsetY: 0,
-    x,
-    y,
-    voronoiArea: tess.area,
-    voronoiSides: tess.sides,
-    edge: tess.edge,
-    neighbours,
-    events,
-    hasIntensity: false,
-  };
-  const columns = measureColumns(ctx, 'points');
-  progress('statistics', 0);
-  const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
-  const rnd = randomness({ ...(reference ? await reference.result() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
-  addRandomness(summary, rnd, settings.umPerPx);
-  if (events) summary.events = eventsSummary(events, tess.area, tess.edge);
-  progress('statistics', 1);
-  return { width, height, field, settings, labels: null, columns, tessellation: tess, summary, randomness: rnd };
 }
 
 /** The segmented cells' outlines (image px), or null for a points pattern. Loads opencv.js if needed. */
