@@ -58,6 +58,8 @@ export function dynamicPeaks(dist: Float32Array, width: number, height: number, 
     const x = p % width;
     const y = (p - x) / width;
     const level = dist[p]!;
+    // The root of p's component, kept through the merges below (each merge makes `old` the root of both).
+    let b = p;
     for (let dy = -1; dy <= 1; dy++) {
       const yy = y + dy;
       if (yy < 0 || yy >= height) continue;
@@ -67,7 +69,6 @@ export function dynamicPeaks(dist: Float32Array, width: number, height: number, 
         const r = yy * width + xx;
         if (parent[r] === -1) continue;
         const a = find(r);
-        const b = find(p);
         if (a === b) continue;
         // The root with the lower peak is the younger one (no pair array: this runs for most pixels).
         const aOlder = dist[peak[a]!]! >= dist[peak[b]!]!;
@@ -77,6 +78,7 @@ export function dynamicPeaks(dist: Float32Array, width: number, height: number, 
         // A young peak that stands at least h above the saddle stays a marker.
         if (alive[young]) recorded.push(peak[young]!);
         parent[young] = old;
+        b = old;
       }
     }
   }
