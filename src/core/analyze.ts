@@ -111,10 +111,20 @@ export async function analyze(input: AnalyzeInput, settingsInput: SettingsInput 
   const { cv } = await loadCv();
   check(opts.signal);
   progress('segment', 0);
-  const seg: SegmentResult = settings.pattern === 'walls' ? segmentWalls(cv, crop, settings) : segmentBodies(cv, crop, settings);
-  progress('segment', 1);
-  check(opts.signal);
-  return measureLabels(seg.labels, crop, field, img.width, img.height, settings, opts, { threshold: seg.threshold, polarity: seg.polarity, minCellAreaPx: seg.minCellAreaPx });
+  // A walls segmentation knows its cell count before its flood: the reference's workers start then.
+  let early: ReferenceStart = null;
+  let seg: SegmentResult;
+  try {
+    seg = settings.pattern === 'walls'
+      ? segmentWalls(cv, crop, settings, (count, minArea) => (early = startReferenceFor(settings, count, field, minArea, opts)))
+      : segmentBodies(cv, crop, settings);
+    progress('segment', 1);
+    check(opts.signal);
+  } catch (e) {
+    (early as ReferenceStart)?.cancel();
+    throw e;
+  }
+  return measureLabels(seg.labels, crop, field, img.width, img.height, settings, opts, { threshold: seg.threshold, polarity: seg.polarity, minCellAreaPx: seg.minCellAreaPx }, early);
 }
 
 /**
@@ -135,7 +145,7 @@ export async function reanalyzeLabels(
   if (labels.width !== field.x1 - field.x0 || labels.height !== field.y1 - field.y0) {
     throw new SettingsError(`The label image is ${labels.width} x ${labels.height} px but the field is ${field.x1 - field.x0} x ${field.y1 - field.y0} px.`);
   }
-  return measureLabels(labels, image, field, imageSize.width, imageSize.height, settings, opts, null);
+  return measureLabels(labels, image, field, imageSize.width, imageSize.height, settings, opts, null, null);
 }
 
 /**
@@ -153,6 +163,9 @@ function startReferenceFor(settings: Settings, cells: number, field: Rect, minCe
   };
   const job = startReference({ ...refOpts, onProgress }, opts.referencePool);
   return {
+    /** What it was started for. */
+    cells,
+    minCellAreaPx,
     /** Between the analysis's steps: the reference's workers take their next chunks. */
     tick: () => job.tick(),
     /** The analysis stopped before it needed the reference. */
@@ -169,6 +182,8 @@ function startReferenceFor(settings: Settings, cells: number, field: Rect, minCe
   };
 }
 
+type ReferenceStart = ReturnType<typeof startReferenceFor>;
+
 async function measureLabels(
   labels: LabelImage,
   image: GreyImage | null,
@@ -178,14 +193,22 @@ async function measureLabels(
   settings: Settings,
   opts: AnalyzeOptions,
   segment: SegmentInfo | null,
+  early: ReferenceStart,
 ): Promise<Analysis> {
   const progress = opts.onProgress ?? (() => {});
   progress('measure', 0);
   if (labels.count < 3) {
+    early?.cancel();
     throw new TooFewCellsError(`Only ${labels.count} cell${labels.count === 1 ? '' : 's'} found; the tessellation needs at least 3. Check the pattern kind and threshold, or use a larger field.`);
   }
-  // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile.
-  const reference = startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts);
+  // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile
+  // (from the segmentation's flood on, when that told the count; it is started afresh should they differ).
+  let reference = early;
+  if (early && (early.cells !== labels.count || early.minCellAreaPx !== segment?.minCellAreaPx)) {
+    early.cancel();
+    reference = null;
+  }
+  reference ??= startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts);
   try {
     const sums = cellSums(labels, image?.data);
     await reference?.tick();

@@ -34,7 +34,10 @@ export interface ReferenceJob {
   cancel(): void;
 }
 
-/** Replicates per chunk: about 24 chunks per thread, so that the threads finish close together. */
+/**
+ * The smallest chunk (replicates): about a 24th of each thread's share, so that the threads finish close
+ * together. With worker threads, chunks start larger (see startReference) and shrink to this.
+ */
 export function chunkSize(replicates: number, threads: number): number {
   return Math.max(1, Math.ceil(replicates / (24 * Math.max(1, threads))));
 }
@@ -63,9 +66,28 @@ export function startReference(opts: ReferenceOptions, pool?: ReferencePool | nu
   }
   const R = plan.replicates;
   const workers = pool && pool.size > 0 ? pool.size : 0;
-  const step = chunkSize(R, workers + 1);
-  const queue: [number, number][] = [];
-  for (let r = 0; r < R; r += step) queue.push([r, Math.min(R, r + step)]);
+  const threads = workers + 1;
+  const smallest = chunkSize(R, threads);
+  // Guided self-scheduling: each chunk is a share of what is left, large at first (a worker keeps going
+  // while the caller is busy elsewhere), down to `smallest` at the end (the threads finish together).
+  let next = 0;
+  const returned: [number, number][] = [];
+  const queue = {
+    get length(): number {
+      return returned.length + (next < R ? 1 : 0);
+    },
+    shift(): [number, number] {
+      if (returned.length) return returned.shift()!;
+      // Alone, the caller draws even chunks: progress and cancellation between them.
+      const size = workers ? Math.max(smallest, Math.ceil((R - next) / (2 * threads))) : smallest;
+      const chunk: [number, number] = [next, Math.min(R, next + size)];
+      next = chunk[1];
+      return chunk;
+    },
+    push(chunk: [number, number]): void {
+      returned.push(chunk);
+    },
+  };
   const batches: ReplicateBatch[] = [];
   let done = 0;
   let stopped = false;

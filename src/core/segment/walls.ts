@@ -47,8 +47,15 @@ export function autoMinArea(markerAreas: Int32Array): number {
   return Math.max(9, Math.round(0.02 * med));
 }
 
-/** Segments a walls pattern into a label image that tiles the image. */
-export function segmentWalls(cv: CV, img: GreyImage, settings: Settings): SegmentResult {
+/** Called as soon as the walls segmentation knows how many cells it will give and the minimum area it used. */
+export type OnCellCount = (count: number, minCellAreaPx: number) => void;
+
+/**
+ * Segments a walls pattern into a label image that tiles the image.
+ * @param onCellCount told the cell count before the flood (each kept marker becomes exactly one cell), so
+ *   that work which needs only the count can start while the flood runs
+ */
+export function segmentWalls(cv: CV, img: GreyImage, settings: Settings, onCellCount?: OnCellCount): SegmentResult {
   const { width: w, height: h } = img;
   const s = settings.walls;
   const flatten = s.flattenRadiusPx < 0 ? autoFlattenRadius(w, h) : s.flattenRadiusPx;
@@ -84,6 +91,7 @@ export function segmentWalls(cv: CV, img: GreyImage, settings: Settings): Segmen
   } else {
     for (let i = 0; i < labels.length; i++) if (!keep[labels[i]!]) labels[i] = 0;
   }
+  onCellCount?.(kept, minArea);
   floodFromMarkers(labels, relief, w, h);
   const count = relabelSequential(labels, cc.count);
   return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
