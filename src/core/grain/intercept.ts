@@ -114,37 +114,34 @@ function sampleRuns(labels: LabelImage, field: Rect, p: TestPattern): { runs: Ru
   const runs: Run[] = [];
   let cur = 0;
   let s = 0;
-  // The same arithmetic as samplePos, one loop per kind.
-  if (p.kind === 'line') {
-    const { x0, y0 } = p;
-    const dx = p.x1 - p.x0;
-    const dy = p.y1 - p.y0;
-    for (let i = 0; i < ns; i++) {
+  // The same arithmetic as samplePos.
+  const line = p.kind === 'line';
+  const x0 = line ? p.x0 : p.cx;
+  const y0 = line ? p.y0 : p.cy;
+  const dx = line ? p.x1 - p.x0 : 0;
+  const dy = line ? p.y1 - p.y0 : 0;
+  const r = line ? 0 : p.r;
+  const twoPi = 2 * Math.PI;
+  for (let i = 0; i < ns; i++) {
+    let fx: number;
+    let fy: number;
+    if (line) {
       const t = (i + 0.5) / ns;
-      const ix = Math.min(fx1, Math.max(fx0, Math.floor(x0 + t * dx)));
-      const iy = Math.min(fy1, Math.max(fy0, Math.floor(y0 + t * dy)));
-      const l = L[iy * w + ix]!;
-      if (i === 0) cur = l;
-      else if (l !== cur) {
-        runs.push({ label: cur, start: s, end: i });
-        cur = l;
-        s = i;
-      }
-    }
-  } else {
-    const { cx, cy, r } = p;
-    const twoPi = 2 * Math.PI;
-    for (let i = 0; i < ns; i++) {
+      fx = x0 + t * dx;
+      fy = y0 + t * dy;
+    } else {
       const a = twoPi * ((i + 0.5) / ns);
-      const ix = Math.min(fx1, Math.max(fx0, Math.floor(cx + r * Math.cos(a))));
-      const iy = Math.min(fy1, Math.max(fy0, Math.floor(cy + r * Math.sin(a))));
-      const l = L[iy * w + ix]!;
-      if (i === 0) cur = l;
-      else if (l !== cur) {
-        runs.push({ label: cur, start: s, end: i });
-        cur = l;
-        s = i;
-      }
+      fx = x0 + r * Math.cos(a);
+      fy = y0 + r * Math.sin(a);
+    }
+    const ix = Math.min(fx1, Math.max(fx0, Math.floor(fx)));
+    const iy = Math.min(fy1, Math.max(fy0, Math.floor(fy)));
+    const l = L[iy * w + ix]!;
+    if (i === 0) cur = l;
+    else if (l !== cur) {
+      runs.push({ label: cur, start: s, end: i });
+      cur = l;
+      s = i;
     }
   }
   runs.push({ label: cur, start: s, end: ns });
