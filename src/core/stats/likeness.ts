@@ -5,6 +5,7 @@
  */
 import { Delaunay } from 'd3-delaunay';
 import type { Tessellation } from '../tessellate';
+import { delaunayNeighbours } from '../tessellate/neighbours';
 import type { LabelImage } from '../types';
 
 export interface VoronoiLikeness {
@@ -89,24 +90,3 @@ export function voronoiLikeness(labels: LabelImage, t: Tessellation, edge: Uint8
   return { overlap, areaRatio, medianOverlap: med, overallOverlap: st > 0 ? si / st : Number.NaN, stepPx: step };
 }
 
-/** The Delaunay neighbours of each point, CSR (every edge of the triangulation, both ways). */
-function delaunayNeighbours(d: Delaunay<Float64Array>, n: number): { offsets: Int32Array; index: Int32Array } {
-  const { triangles, halfedges } = d;
-  const m = triangles.length;
-  const offsets = new Int32Array(n + 1);
-  // Each halfedge e runs from triangles[e] to the next vertex of its triangle; an edge without a twin (on
-  // the hull) is counted from both ends here, so that every edge is listed at both of its points.
-  const to = (e: number): number => triangles[e % 3 === 2 ? e - 2 : e + 1]!;
-  for (let e = 0; e < m; e++) {
-    offsets[triangles[e]! + 1]!++;
-    if (halfedges[e]! < 0) offsets[to(e) + 1]!++;
-  }
-  for (let i = 0; i < n; i++) offsets[i + 1] = offsets[i + 1]! + offsets[i]!;
-  const fill = offsets.slice(0, n);
-  const index = new Int32Array(offsets[n]!);
-  for (let e = 0; e < m; e++) {
-    index[fill[triangles[e]!]!++] = to(e);
-    if (halfedges[e]! < 0) index[fill[to(e)]!++] = triangles[e]!;
-  }
-  return { offsets, index };
-}

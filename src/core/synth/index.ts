@@ -7,6 +7,7 @@ import { Delaunay } from 'd3-delaunay';
 import { SettingsError } from '../errors';
 import { mulberry32, normal, subSeed } from '../random';
 import type { GreyImage, LabelImage } from '../types';
+import { delaunayNeighbours } from '../tessellate/neighbours';
 import { hardCoreDistance, seedPoints, type SeedOrder } from './seeds';
 
 export interface SynthOptions {
@@ -79,30 +80,6 @@ function validate(o: Required<SynthOptions>): void {
   if (!(o.wallPx > 0)) throw new SettingsError('Wall width must be positive.');
 }
 
-/** Neighbour lists of the Delaunay triangulation in CSR form. */
-function delaunayNeighbours(d: Delaunay<number>, n: number): { off: Int32Array; idx: Int32Array } {
-  const { halfedges, triangles } = d;
-  const counts = new Int32Array(n + 1);
-  // Each undirected edge appears once as a halfedge with no twin (hull) or twice; count directed edges.
-  for (let e = 0; e < triangles.length; e++) {
-    const a = triangles[e]!;
-    const b = triangles[e % 3 === 2 ? e - 2 : e + 1]!;
-    counts[a + 1]!++;
-    if (halfedges[e]! < 0) counts[b + 1]!++;
-  }
-  for (let i = 0; i < n; i++) counts[i + 1]! += counts[i]!;
-  const off = counts.slice();
-  const pos = counts.slice(0, n);
-  const idx = new Int32Array(off[n]!);
-  for (let e = 0; e < triangles.length; e++) {
-    const a = triangles[e]!;
-    const b = triangles[e % 3 === 2 ? e - 2 : e + 1]!;
-    idx[pos[a]!++] = b;
-    if (halfedges[e]! < 0) idx[pos[b]!++] = a;
-  }
-  return { off, idx };
-}
-
 /** Separable Gaussian blur of a Float32Array image, in place. */
 function gaussianBlur(img: Float32Array, w: number, h: number, sigma: number): void {
   if (sigma <= 0) return;
@@ -153,7 +130,7 @@ export function synthesize(options: SynthOptions): SynthResult {
   const n = seeds.length / 2;
   const rng = mulberry32(subSeed(o.seed, 1));
   const d = new Delaunay(seeds);
-  const { off, idx } = delaunayNeighbours(d, n);
+  const { offsets: off, index: idx } = delaunayNeighbours(d, n);
   const truth = new Int32Array(w * h);
   const img = new Float32Array(w * h);
   const cellGrey = new Float32Array(n);
