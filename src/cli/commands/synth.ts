@@ -1,6 +1,7 @@
 /**
  * `tessellab synth --pattern walls|bodies --cells N --size WxH [--order random|regular|clustered] --seed S --out FILE`
  * Writes a synthetic PNG and, beside it, FILE's stem + .truth.json (seeds, cell count, options).
+ * --window (walls): the image is a window on a larger tiling, seeds drawn beyond its border too.
  */
 import { basename, dirname, extname, join } from 'node:path';
 import { SettingsError } from '../../core/errors';
@@ -13,14 +14,14 @@ import { parseArgs, parseSize, positiveInt, positiveNumber } from '../args';
 import { ensureOutDir, writeOut } from '../files';
 
 const USAGE =
-  'tessellab synth --pattern walls|bodies --cells N --size WxH [--order random|regular|clustered] --seed S --out FILE.png [--wall-px W] [--noise SD] [--blur-px S] [--um-per-px X] [--light-walls]';
+  'tessellab synth --pattern walls|bodies --cells N --size WxH [--order random|regular|clustered] --seed S --out FILE.png [--wall-px W] [--noise SD] [--blur-px S] [--um-per-px X] [--light-walls] [--window]';
 
 export const command: Command = {
   name: 'synth',
   summary: 'Write a synthetic micrograph with known truth (the project’s own generator).',
   usage: USAGE,
   async run(argv) {
-    const a = parseArgs(argv, ['pattern', 'cells', 'size', 'order', 'seed', 'out', 'wall-px', 'noise', 'blur-px', 'um-per-px'], ['light-walls']);
+    const a = parseArgs(argv, ['pattern', 'cells', 'size', 'order', 'seed', 'out', 'wall-px', 'noise', 'blur-px', 'um-per-px'], ['light-walls', 'window']);
     for (const k of ['pattern', 'cells', 'size', 'out']) if (!a.options.has(k)) throw new SettingsError(`--${k} is required. Usage: ${USAGE}`);
     const pattern = a.options.get('pattern')!;
     if (pattern !== 'walls' && pattern !== 'bodies') throw new SettingsError(`--pattern must be walls or bodies; got "${pattern}".`);
@@ -46,6 +47,8 @@ export const command: Command = {
       blurPx: opt('blur-px'),
       noise,
       wallPolarity: a.flags.has('light-walls') ? 'light' : 'dark',
+      // A window on a larger tiling (walls): cells reach across the border, as in a micrograph.
+      window: a.flags.has('window'),
     });
     const out = a.options.get('out')!;
     if (extname(out).toLowerCase() !== '.png') throw new SettingsError('--out must name a .png file.');

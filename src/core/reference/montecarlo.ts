@@ -179,6 +179,19 @@ function draw(opts: ReferenceOptions): Reference {
 }
 
 /**
+ * The seed density λ (per px²) at which a window of W x H px on a Poisson–Voronoi tiling meets `cells`
+ * cells on average: E N = λA + (2/π)·P·√λ + 1 for a convex window of area A and perimeter P (the kinematic
+ * formula with the Poisson–Voronoi mean perimeter 4/√λ; Santaló 1976, Integral Geometry and Geometric
+ * Probability; derived, memory), solved for √λ.
+ */
+export function windowDensity(cells: number, W: number, H: number): number {
+  const A = W * H;
+  const b = (2 / Math.PI) * 2 * (W + H);
+  const x = (-b + Math.sqrt(b * b + 4 * A * Math.max(0, cells - 1))) / (2 * A);
+  return x * x;
+}
+
+/**
  * Everything a reference's replicates depend on, checked and worked out once: a plain object of numbers
  * and typed arrays, so that it can be posted to a worker that draws some of the replicates.
  */
@@ -218,13 +231,7 @@ export function planReference(opts: ReferenceOptions): ReferencePlan {
   const warnings: string[] = [];
   const A = W * H;
   let density = opts.density;
-  if (density === undefined) {
-    if (layout === 'window') {
-      const b = (2 / Math.PI) * 2 * (W + H);
-      const x = (-b + Math.sqrt(b * b + 4 * A * Math.max(0, cells - 1))) / (2 * A);
-      density = x * x;
-    } else density = cells / A;
-  }
+  if (density === undefined) density = layout === 'window' ? windowDensity(cells, W, H) : cells / A;
   if (!(density > 0) || !Number.isFinite(density)) throw new SettingsError(`The seed density must be a positive number per px²; got ${density}.`);
   const hidden = minArea > 0 ? gammaCdf(minArea * density, PV_AREA_GAMMA_SHAPE.value, PV_AREA_GAMMA_SHAPE.value) : 0;
   if (hidden > 0.5) {

@@ -7,6 +7,7 @@ import { Delaunay } from 'd3-delaunay';
 import { SettingsError } from '../errors';
 import { mulberry32, normal, subSeed } from '../random';
 import type { GreyImage, LabelImage } from '../types';
+import { windowDensity } from '../reference/montecarlo';
 import { delaunayNeighbours } from '../tessellate/neighbours';
 import { hardCoreDistance, seedPoints, type SeedOrder } from './seeds';
 
@@ -37,11 +38,18 @@ export interface SynthOptions {
   bodyRadiusFactor?: number;
   /** Bit depth of the output image. Default 8. */
   bitDepth?: 8 | 16;
+  /**
+   * Walls: the image is a window on a larger tiling, as a micrograph is. Seeds are also drawn in a guard
+   * band of 3 mean spacings around the image, at the density that puts `cells` cells in the image on
+   * average (windowDensity), so that cells reach across the border. Default false: seeds in the image only,
+   * `cells` of them.
+   */
+  window?: boolean;
 }
 
 export interface SynthResult {
   image: GreyImage;
-  /** Seeds, interleaved x, y (px). */
+  /** Seeds, interleaved x, y (px): for a window, those of the cells seen in the image (some lie outside it). */
   seeds: Float64Array;
   /**
    * Truth labels: for walls the Voronoi tiling of the seeds without walls (cell i+1 holds seed i); for
@@ -65,6 +73,7 @@ function fill(o: SynthOptions): Required<SynthOptions> {
     cellContrast: 12,
     bodyRadiusFactor: 1.2,
     bitDepth: 8,
+    window: false,
     ...(Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as SynthOptions),
   };
 }
@@ -78,6 +87,16 @@ function validate(o: Required<SynthOptions>): void {
   if (!Number.isInteger(o.cells) || o.cells < 1) throw new SettingsError(`Cell count must be a positive whole number; got ${o.cells}.`);
   if (o.cells > (o.width * o.height) / 16) throw new SettingsError(`${o.cells} cells do not fit in ${o.width} x ${o.height} px; use at most one cell per 16 px².`);
   if (!(o.wallPx > 0)) throw new SettingsError('Wall width must be positive.');
+  if (o.window && o.pattern !== 'walls') throw new SettingsError('A window on a larger tiling is a walls pattern; bodies lie in the image. Leave the window option off for bodies.');
+}
+
+/** Seeds of a window: drawn over the image and a guard band of 3 mean spacings, in image coordinates. */
+function windowSeeds(o: Required<SynthOptions>): Float64Array {
+  const { width: w, height: h } = o;
+  const lambda = windowDensity(o.cells, w, h);
+  const m = 3 / Math.sqrt(lambda);
+  const count = Math.max(3, Math.round(lambda * (w + 2 * m) * (h + 2 * m)));
+  return seedPoints(count, w + 2 * m, h + 2 * m, o.order, o.seed).map((v) => v - m);
 }
 
 /** Separable Gaussian blur of a Float32Array image, in place. */
@@ -126,7 +145,7 @@ export function synthesize(options: SynthOptions): SynthResult {
   const o = fill(options);
   validate(o);
   const { width: w, height: h } = o;
-  const seeds = seedPoints(o.cells, w, h, o.order, o.seed);
+  const seeds = o.window ? windowSeeds(o) : seedPoints(o.cells, w, h, o.order, o.seed);
   const n = seeds.length / 2;
   const rng = mulberry32(subSeed(o.seed, 1));
   const d = new Delaunay(seeds);
@@ -194,11 +213,28 @@ export function synthesize(options: SynthOptions): SynthResult {
       out[y * w + x] = v < 0 ? 0 : v > max ? max : Math.round(v);
     }
   }
+  const seen = o.window ? seenCells(truth, seeds, n) : { seeds, count: n };
   return {
     image: { width: w, height: h, data: out, bitDepth: o.bitDepth },
-    seeds,
-    truth: { width: w, height: h, labels: truth, count: n },
-    cells: n,
+    seeds: seen.seeds,
+    truth: { width: w, height: h, labels: truth, count: seen.count },
+    cells: seen.count,
     options: o,
   };
+}
+
+/** Keeps the cells that own a pixel of the image, numbered 1.. in seed order (truth relabelled in place). */
+function seenCells(truth: Int32Array, seeds: Float64Array, n: number): { seeds: Float64Array; count: number } {
+  const map = new Int32Array(n + 1);
+  for (let p = 0; p < truth.length; p++) map[truth[p]!] = 1;
+  let count = 0;
+  for (let i = 1; i <= n; i++) if (map[i]) map[i] = ++count;
+  for (let p = 0; p < truth.length; p++) truth[p] = map[truth[p]!]!;
+  const out = new Float64Array(2 * count);
+  for (let i = 1; i <= n; i++) {
+    if (!map[i]) continue;
+    out[2 * (map[i]! - 1)] = seeds[2 * (i - 1)]!;
+    out[2 * (map[i]! - 1) + 1] = seeds[2 * (i - 1) + 1]!;
+  }
+  return { seeds: out, count };
 }
