@@ -13,10 +13,10 @@ make() { # name description umPerPx args...
   "$t" synth "${args[@]}" --out "$out/$name.png"
   entries+=("{\"file\":\"$name.png\",\"truth\":\"$name.truth.json\",\"description\":\"$desc\",\"umPerPx\":$um,\"command\":\"tessellab synth ${args[*]} --out $name.png\"}")
 }
-make foam-random "Foam of random cells: Voronoi tiling of uniformly random seeds, dark films 3 px wide" null \
-  --pattern walls --cells 600 --size 900x700 --order random --seed 11
-make tissue-regular "Tissue-like sheet, more regular than random: hard-core seeds, dark membranes 3 px wide" null \
-  --pattern walls --cells 500 --size 900x700 --order regular --seed 12
+make foam-random "Foam of random cells, a window on a larger foam: Voronoi tiling of uniformly random seeds, dark films 3 px wide" null \
+  --pattern walls --cells 600 --size 900x700 --order random --seed 11 --window
+make tissue-regular "Tissue-like sheet, more regular than random, a window on a larger sheet: hard-core seeds, dark membranes 3 px wide" null \
+  --pattern walls --cells 500 --size 900x700 --order regular --seed 12 --window
 make grains-calibrated "Grains with a known pixel size (0.5 µm/px, stored in the PNG pHYs chunk): random seeds, dark boundaries" 0.5 \
   --pattern walls --cells 700 --size 1000x800 --order random --seed 13 --wall-px 2.5
 make bodies-touching "Touching bodies (nuclei-like discs) on a dark background, hard-core centres" null \

@@ -99,7 +99,7 @@ describe('Tessellab web app', () => {
     expect(s.status).toBe('done');
     const shown = Number(await page.getByTestId('cell-count').textContent());
     expect(shown).toBe(s.count);
-    // sample-images/manifest.json: foam-random.png is a 600-seed walls pattern; the count must be near it.
+    // sample-images/manifest.json: foam-random.png is a window on a random foam of about 600 cells (586 in its truth); the count must be near it.
     expect(shown).toBeGreaterThan(500);
     expect(shown).toBeLessThan(700);
     await expect.poll(() => page.getByText('Use your own').count()).toBeGreaterThan(0);
