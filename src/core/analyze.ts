@@ -151,7 +151,7 @@ export async function reanalyzeLabels(
 /**
  * Starts the random-seeding reference for an observation of `cells` cells in `field` (null when the
  * settings ask for none). Its result() never throws but for cancellation: a reference that cannot be
- * drawn becomes `{ error }`, which the randomness report shows as a warning beside what was computed.
+ * drawn becomes `{ referenceError }`, which the randomness report shows as a warning beside what was computed.
  */
 function startReferenceFor(settings: Settings, cells: number, field: Rect, minCellAreaPx: number | undefined, opts: AnalyzeOptions) {
   const refOpts = referenceOptionsFor(settings, cells, field, minCellAreaPx);
@@ -230,7 +230,9 @@ async function measureLabels(
     await reference?.tick();
     const neighbours = new Int32Array(n);
     for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
-    const events = opts.events ? assignEvents(opts.events, labelsInImage(labels, field), tess) : undefined;
+    // The labels in image coordinates (a copy only when the field is inset), for events and the statistics.
+    const imageLabels = labelsInImage(labels, field);
+    const events = opts.events ? assignEvents(opts.events, imageLabels, tess) : undefined;
     const ctx: MeasureContext = {
       count: n,
       umPerPx: settings.umPerPx,
@@ -265,7 +267,6 @@ async function measureLabels(
     const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
     const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
     // Voronoi-likeness needs no reference: measured while the pool finishes drawing it.
-    const imageLabels = labelsInImage(labels, field);
     const likeness = reference ? voronoiLikeness(imageLabels, tess, sums.edge) : undefined;
     const rnd = randomness({
       ...(reference ? await reference.result() : {}),
