@@ -138,6 +138,95 @@ export function thresholdMask(
   });
 }
 
+/** How the class of interest is separated: Otsu, a fixed level, or a local-mean adaptive threshold. */
+export type MaskThreshold = { kind: 'otsu' } | { kind: 'global'; level: number } | { kind: 'adaptive'; blockPx: number };
+
+/** The marker components of {@link thresholdComponents}, after the caller's selection. */
+export interface ThresholdComponents {
+  /** The global level used (0..255), or -1 for adaptive. */
+  level: number;
+  /** Pixels in the bright class (value > level, or above the local mean). */
+  brightCount: number;
+  /** Which class the components are of. */
+  picked: 'bright' | 'dark';
+  /** Components 1..count before selection; areas[l] = pixels of component l (areas[0] the rest). */
+  count: number;
+  areas: Int32Array;
+  /** Component labels (w*h), with the components the selection dropped set to 0. */
+  labels: Int32Array;
+}
+
+/**
+ * Thresholds an 8-bit image, picks one class, erodes it and labels its connected components, all inside
+ * opencv.js: the masks never cross to JavaScript, and the label image crosses once, after `select` has
+ * seen the component areas. Same pixels and labels as thresholdMask, erodeMask and connectedComponents in
+ * turn (the bright class is value > level; adaptive is value > local mean).
+ *
+ * @param pick told the bright-class pixel count, returns the class to label
+ * @param erodePx erosion radius (px) of the picked class before labelling; 0 = none
+ * @param select told the component areas (index = label) before the label image is copied out (so that
+ *   work needing only the areas can start at once); returns keep[label] (1 keep, 0 drop)
+ * @throws whatever pick or select throw (every Mat freed)
+ */
+export function thresholdComponents(
+  cv: CV,
+  img8: Uint8Array,
+  width: number,
+  height: number,
+  method: MaskThreshold,
+  pick: (brightCount: number) => 'bright' | 'dark',
+  erodePx: number,
+  connectivity: 4 | 8,
+  select: (areas: Int32Array, count: number) => Uint8Array,
+): ThresholdComponents {
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, img8));
+    const mask = track(new cv.Mat());
+    let level: number;
+    if (method.kind === 'adaptive') {
+      level = -1;
+      const block = method.blockPx % 2 === 1 ? method.blockPx : method.blockPx + 1;
+      cv.adaptiveThreshold(src, mask, 1, cv.ADAPTIVE_THRESH_MEAN_C, cv.THRESH_BINARY, block, 0);
+    } else if (method.kind === 'otsu') {
+      level = cv.threshold(src, mask, 0, 1, cv.THRESH_BINARY | cv.THRESH_OTSU) as number;
+    } else {
+      level = method.level;
+      cv.threshold(src, mask, level, 1, cv.THRESH_BINARY);
+    }
+    const brightCount = cv.countNonZero(mask) as number;
+    const picked = pick(brightCount);
+    if (picked === 'dark') {
+      // 1 − mask in place: the dark class.
+      const m = mask.data as Uint8Array;
+      for (let i = 0; i < m.length; i++) m[i] ^= 1;
+    }
+    let fg = mask;
+    if (erodePx > 0) {
+      fg = track(new cv.Mat());
+      const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * erodePx + 1, 2 * erodePx + 1)));
+      cv.erode(mask, fg, k, new cv.Point(-1, -1), 1, cv.BORDER_CONSTANT, new cv.Scalar(1));
+    }
+    // The source is not needed again: its heap is reused by the label Mat.
+    src.delete();
+    const labelsMat = track(new cv.Mat());
+    const stats = track(new cv.Mat());
+    const cents = track(new cv.Mat());
+    const n = cv.connectedComponentsWithStats(fg, labelsMat, stats, cents, connectivity, cv.CV_32S) as number;
+    const st = stats.data32S as Int32Array;
+    const areas = new Int32Array(n);
+    for (let i = 0; i < n; i++) areas[i] = st[i * 5 + 4]!;
+    const keep = select(areas, n - 1);
+    // Copy out and drop in one pass (the view is taken after select, which may have used opencv.js).
+    const view = labelsMat.data32S as Int32Array;
+    const labels = new Int32Array(view.length);
+    for (let i = 0; i < view.length; i++) {
+      const l = view[i]!;
+      labels[i] = keep[l] ? l : 0;
+    }
+    return { level, brightCount, picked, count: n - 1, areas, labels };
+  });
+}
+
 /** Erodes a 0/1 mask with a disc-like (elliptic) element of radius r px; r = 0 returns a copy. */
 export function erodeMask(cv: CV, mask: Uint8Array, width: number, height: number, r: number): Uint8Array {
   if (r <= 0) return mask.slice();

@@ -76,7 +76,7 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
     const relief = new Uint8Array(w * h);
     const k = dmax > 0 ? 255 / dmax : 0;
     for (let i = 0; i < relief.length; i++) relief[i] = 255 - Math.round(dist[i]! * k);
-    floodFromMarkers(labels, relief, w, h, mask);
+    floodFromMarkers(labels, relief, w, h, { allowed: mask });
     if (s.fillHoles) fillHoles(cv, labels, mask, w, h);
   } else {
     if (s.fillHoles) fillHoles(cv, null, mask, w, h);
@@ -90,7 +90,7 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
   for (let i = 0; i < labels.length; i++) if (labels[i]! > 0 && area[labels[i]!]! < minArea) labels[i] = 0;
   const count = relabelSequential(labels, maxLabel);
   if (count === 0) throw new NoCellsError(`No bodies found larger than the minimum area of ${minArea} px²; lower the minimum cell area or check the threshold.`);
-  return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
+  return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea };
 }
 
 /** Size of the largest component (label 0, the other class, excluded). */

@@ -8,14 +8,28 @@
  * of touching cells shares a boundary. O(N) with a 256-level bucket queue.
  */
 
+/** Options of {@link floodFromMarkers}. */
+export interface FloodOptions {
+  /** Mask of the pixels that may be flooded (default: all); pixels with allowed[p] = 0 stay 0. */
+  allowed?: Uint8Array;
+  /**
+   * The level each relief value floods at (256 entries; default: the value itself), so that an image can
+   * be flooded as its inverse, say, without building the inverted copy.
+   */
+  levels?: Uint8Array;
+}
+
+const IDENTITY_LEVELS = Uint8Array.from({ length: 256 }, (_, v) => v);
+
 /**
  * Floods `labels` in place.
  *
  * @param labels Int32Array (w*h): > 0 markers, 0 pixels to flood; pixels with `allowed[p] = 0` stay 0.
- * @param relief Uint8Array (w*h): height to flood over (walls high).
- * @param allowed optional Uint8Array mask of pixels that may be flooded (default: all).
+ * @param relief Uint8Array (w*h): height to flood over (walls high), through `levels` when given.
  */
-export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: number, height: number, allowed?: Uint8Array): void {
+export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: number, height: number, opts: FloodOptions = {}): void {
+  const { allowed } = opts;
+  const levelOf = opts.levels ?? IDENTITY_LEVELS;
   const n = width * height;
   // The pixels still to be taken as a bitmap (n/8 bytes): the neighbour tests, which are most of the work,
   // then stay in cache on large images instead of missing it in the label image.
@@ -66,7 +80,7 @@ export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: 
         (y > 0 && labels[p - width] === 0) ||
         (y < height - 1 && labels[p + width] === 0)
       ) {
-        push(p, lab, relief[p]!);
+        push(p, lab, levelOf[relief[p]!]!);
       }
     }
   }
@@ -87,7 +101,7 @@ export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: 
       if ((free[q >>> 5]! & (1 << (q & 31))) !== 0) {
         free[q >>> 5]! &= ~(1 << (q & 31));
         labels[q] = lab;
-        const l = relief[q]!;
+        const l = levelOf[relief[q]!]!;
         push(q, lab, l < level ? level : l);
       }
     }
@@ -96,7 +110,7 @@ export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: 
       if ((free[q >>> 5]! & (1 << (q & 31))) !== 0) {
         free[q >>> 5]! &= ~(1 << (q & 31));
         labels[q] = lab;
-        const l = relief[q]!;
+        const l = levelOf[relief[q]!]!;
         push(q, lab, l < level ? level : l);
       }
     }
@@ -105,7 +119,7 @@ export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: 
       if ((free[q >>> 5]! & (1 << (q & 31))) !== 0) {
         free[q >>> 5]! &= ~(1 << (q & 31));
         labels[q] = lab;
-        const l = relief[q]!;
+        const l = levelOf[relief[q]!]!;
         push(q, lab, l < level ? level : l);
       }
     }
@@ -114,7 +128,7 @@ export function floodFromMarkers(labels: Int32Array, relief: Uint8Array, width: 
       if ((free[q >>> 5]! & (1 << (q & 31))) !== 0) {
         free[q >>> 5]! &= ~(1 << (q & 31));
         labels[q] = lab;
-        const l = relief[q]!;
+        const l = levelOf[relief[q]!]!;
         push(q, lab, l < level ? level : l);
       }
     }

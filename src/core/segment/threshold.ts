@@ -3,7 +3,7 @@
  * prepared 8-bit image, and the check that both classes are present.
  */
 import type { CV } from '../cv/index';
-import { otsuThreshold, thresholdMask } from '../cv/kernels';
+import { otsuThreshold, thresholdMask, type MaskThreshold } from '../cv/kernels';
 import { NoCellsError } from '../errors';
 import type { ThresholdMethod } from '../settings';
 
@@ -39,8 +39,17 @@ export function thresholdPrepared(
   }
   let brightCount = 0;
   for (let i = 0; i < bright.length; i++) brightCount += bright[i]!;
-  if (brightCount === 0 || brightCount === bright.length) {
-    throw new NoCellsError(`No ${what} found: the image is uniform (nothing to threshold); check that this is the right image, or set a manual threshold.`);
-  }
+  if (brightCount === 0 || brightCount === bright.length) throw uniformImageError(what);
   return { bright, brightCount, level };
+}
+
+/** The error for an image with one class only (nothing to threshold). */
+export function uniformImageError(what: 'cells' | 'bodies'): NoCellsError {
+  return new NoCellsError(`No ${what} found: the image is uniform (nothing to threshold); check that this is the right image, or set a manual threshold.`);
+}
+
+/** The threshold settings as a kernel's method. */
+export function maskThreshold(s: { threshold: ThresholdMethod; manualThreshold: number; adaptiveBlockPx: number }): MaskThreshold {
+  if (s.threshold === 'adaptive') return { kind: 'adaptive', blockPx: s.adaptiveBlockPx };
+  return s.threshold === 'manual' ? { kind: 'global', level: s.manualThreshold } : { kind: 'otsu' };
 }

@@ -9,8 +9,8 @@
  * 4. Markers grow back over the walls by priority flooding on the wall relief (marker watershed), so
  *    the cells tile the field and every pair of touching cells shares a boundary.
  */
-import { connectedComponents, erodeMask, prepareGrey } from '../cv/kernels';
-import { thresholdPrepared } from './threshold';
+import { prepareGrey, thresholdComponents } from '../cv/kernels';
+import { maskThreshold, uniformImageError } from './threshold';
 import type { CV } from '../cv/index';
 import { NoCellsError } from '../errors';
 import type { Settings } from '../settings';
@@ -25,8 +25,6 @@ export interface SegmentResult {
   polarity: string;
   /** The minimum cell area (px²) used. */
   minCellAreaPx: number;
-  /** The 8-bit prepared image the kernels worked on. */
-  prepared: Uint8Array;
 }
 
 /** The flattening radius used when the setting is 'auto' (-1): an eighth of the shorter side, at least 32 px. */
@@ -61,38 +59,41 @@ export function segmentWalls(cv: CV, img: GreyImage, settings: Settings, onCellC
   const flatten = s.flattenRadiusPx < 0 ? autoFlattenRadius(w, h) : s.flattenRadiusPx;
   const prepared = prepareGrey(cv, img, { flattenRadiusPx: flatten, smoothSigmaPx: s.smoothSigmaPx });
 
-  const { bright, brightCount: nBright, level: threshold } = thresholdPrepared(cv, prepared, w, h, s, 'cells');
-  const polarity = s.polarity === 'auto' ? (nBright < bright.length / 2 ? 'light' : 'dark') : s.polarity;
-  // Cells are the non-wall class.
-  const cellMask = bright;
-  if (polarity === 'light') for (let i = 0; i < cellMask.length; i++) cellMask[i] = 1 - cellMask[i]!;
-
-  // Without erosion the cell mask itself is the seed mask (it is not needed afterwards): no copy.
-  const seedMask = s.seedErodePx > 0 ? erodeMask(cv, cellMask, w, h, s.seedErodePx) : cellMask;
-  const cc = connectedComponents(cv, seedMask, w, h, 4);
-  const minArea = settings.minCellAreaPx < 0 ? autoMinArea(cc.areas) : settings.minCellAreaPx;
-  // Markers below the minimum area are dropped: their pixels are flooded by the neighbours. The area of a
-  // marker is smaller than its cell's (walls and erosion removed), so the floor is applied to marker area
-  // grown by the erosion ring only when the setting is explicit.
-  const keep = new Uint8Array(cc.count + 1);
+  let polarity = s.polarity;
+  let minArea = settings.minCellAreaPx;
   let kept = 0;
-  for (let l = 1; l <= cc.count; l++) if (cc.areas[l]! >= minArea) (keep[l] = 1), kept++;
-  if (kept === 0) {
-    throw new NoCellsError(`No cells found: no cell interior is larger than the minimum cell area of ${minArea} px²; lower the minimum cell area or check the threshold.`);
-  }
+  // Threshold, cell class, erosion and components inside opencv.js; the count is known (and told)
+  // before the label image is copied out, marker dropping included in that copy.
+  const cc = thresholdComponents(
+    cv, prepared, w, h, maskThreshold(s),
+    (nBright) => {
+      if (nBright === 0 || nBright === w * h) throw uniformImageError('cells');
+      // Thin walls cover well under half of a cellular image: the walls are the minority class.
+      if (polarity === 'auto') polarity = nBright < (w * h) / 2 ? 'light' : 'dark';
+      // Cells are the non-wall class.
+      return polarity === 'light' ? 'dark' : 'bright';
+    },
+    s.seedErodePx, 4,
+    (areas, count) => {
+      if (minArea < 0) minArea = autoMinArea(areas);
+      // Markers below the minimum area are dropped: their pixels are flooded by the neighbours. The area of a
+      // marker is smaller than its cell's (walls and erosion removed), so the floor is applied to marker area
+      // grown by the erosion ring only when the setting is explicit.
+      const keep = new Uint8Array(count + 1);
+      for (let l = 1; l <= count; l++) if (areas[l]! >= minArea) (keep[l] = 1), kept++;
+      if (kept === 0) {
+        throw new NoCellsError(`No cells found: no cell interior is larger than the minimum cell area of ${minArea} px²; lower the minimum cell area or check the threshold.`);
+      }
+      onCellCount?.(kept, minArea);
+      return keep;
+    },
+  );
   const labels = cc.labels;
-  // Relief: walls high. Inverted in the same pass that drops the small markers.
-  const relief = polarity === 'dark' ? new Uint8Array(prepared.length) : prepared;
-  if (polarity === 'dark') {
-    for (let i = 0; i < labels.length; i++) {
-      relief[i] = 255 - prepared[i]!;
-      if (!keep[labels[i]!]) labels[i] = 0;
-    }
-  } else {
-    for (let i = 0; i < labels.length; i++) if (!keep[labels[i]!]) labels[i] = 0;
-  }
-  onCellCount?.(kept, minArea);
-  floodFromMarkers(labels, relief, w, h);
+  // Relief: walls high; for dark walls the grey levels read upside down (no inverted copy).
+  floodFromMarkers(labels, prepared, w, h, { levels: polarity === 'dark' ? INVERTED : undefined });
   const count = relabelSequential(labels, cc.count);
-  return { labels: { width: w, height: h, labels, count }, threshold, polarity, minCellAreaPx: minArea, prepared };
+  return { labels: { width: w, height: h, labels, count }, threshold: cc.level, polarity, minCellAreaPx: minArea };
 }
+
+/** Grey level v floods at level 255 − v. */
+const INVERTED = Uint8Array.from({ length: 256 }, (_, v) => 255 - v);
