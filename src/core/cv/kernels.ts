@@ -200,31 +200,42 @@ export function thresholdComponents(
       const m = mask.data as Uint8Array;
       for (let i = 0; i < m.length; i++) m[i] ^= 1;
     }
-    let fg = mask;
-    if (erodePx > 0) {
-      fg = track(new cv.Mat());
-      const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * erodePx + 1, 2 * erodePx + 1)));
-      cv.erode(mask, fg, k, new cv.Point(-1, -1), 1, cv.BORDER_CONSTANT, new cv.Scalar(1));
-    }
+    const fg = erodePx > 0 ? erodeMat(cv, track, mask, erodePx) : mask;
     // The source is not needed again: its heap is reused by the label Mat.
     src.delete();
-    const labelsMat = track(new cv.Mat());
-    const stats = track(new cv.Mat());
-    const cents = track(new cv.Mat());
-    const n = cv.connectedComponentsWithStats(fg, labelsMat, stats, cents, connectivity, cv.CV_32S) as number;
-    const st = stats.data32S as Int32Array;
-    const areas = new Int32Array(n);
-    for (let i = 0; i < n; i++) areas[i] = st[i * 5 + 4]!;
-    const keep = select(areas, n - 1);
+    const cc = labelComponents(cv, track, fg, connectivity);
+    const keep = select(cc.areas, cc.count);
     // Copy out and drop in one pass (the view is taken after select, which may have used opencv.js).
-    const view = labelsMat.data32S as Int32Array;
+    const view = cc.labels.data32S as Int32Array;
     const labels = new Int32Array(view.length);
     for (let i = 0; i < view.length; i++) {
       const l = view[i]!;
       labels[i] = keep[l] ? l : 0;
     }
-    return { level, brightCount, picked, count: n - 1, areas, labels };
+    return { level, brightCount, picked, count: cc.count, areas: cc.areas, labels };
   });
+}
+
+type Track = <M extends { delete(): void }>(m: M) => M;
+
+/** A 0/1 Mat eroded with a disc-like (elliptic) element of radius r px; outside the image counts as 1. */
+function erodeMat(cv: CV, track: Track, src: CV, r: number): CV {
+  const dst = track(new cv.Mat());
+  const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * r + 1, 2 * r + 1)));
+  cv.erode(src, dst, k, new cv.Point(-1, -1), 1, cv.BORDER_CONSTANT, new cv.Scalar(1));
+  return dst;
+}
+
+/** Connected components of a 0/1 Mat: the CV_32S label Mat (tracked), the count and each label's pixel count. */
+function labelComponents(cv: CV, track: Track, src: CV, connectivity: 4 | 8): { labels: CV; count: number; areas: Int32Array } {
+  const labels = track(new cv.Mat());
+  const stats = track(new cv.Mat());
+  const cents = track(new cv.Mat());
+  const n = cv.connectedComponentsWithStats(src, labels, stats, cents, connectivity, cv.CV_32S) as number;
+  const st = stats.data32S as Int32Array;
+  const areas = new Int32Array(n);
+  for (let i = 0; i < n; i++) areas[i] = st[i * 5 + 4]!;
+  return { labels, count: n - 1, areas };
 }
 
 /** Erodes a 0/1 mask with a disc-like (elliptic) element of radius r px; r = 0 returns a copy. */
@@ -232,10 +243,7 @@ export function erodeMask(cv: CV, mask: Uint8Array, width: number, height: numbe
   if (r <= 0) return mask.slice();
   return withMats((track) => {
     const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
-    const dst = track(new cv.Mat());
-    const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * r + 1, 2 * r + 1)));
-    cv.erode(src, dst, k, new cv.Point(-1, -1), 1, cv.BORDER_CONSTANT, new cv.Scalar(1));
-    return new Uint8Array(dst.data as Uint8Array);
+    return new Uint8Array(erodeMat(cv, track, src, r).data as Uint8Array);
   });
 }
 
@@ -252,14 +260,8 @@ export function connectedComponents(
 ): { labels: Int32Array; count: number; areas: Int32Array } {
   return withMats((track) => {
     const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
-    const labels = track(new cv.Mat());
-    const stats = track(new cv.Mat());
-    const cents = track(new cv.Mat());
-    const n = cv.connectedComponentsWithStats(src, labels, stats, cents, connectivity, cv.CV_32S) as number;
-    const s = stats.data32S as Int32Array;
-    const areas = new Int32Array(n);
-    for (let i = 0; i < n; i++) areas[i] = s[i * 5 + 4]!;
-    return { labels: new Int32Array(labels.data32S as Int32Array), count: n - 1, areas };
+    const cc = labelComponents(cv, track, src, connectivity);
+    return { labels: new Int32Array(cc.labels.data32S as Int32Array), count: cc.count, areas: cc.areas };
   });
 }
 
