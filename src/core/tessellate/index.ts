@@ -124,14 +124,13 @@ export class Tessellator {
   private delaunay: Delaunay<Float64Array> | null = null;
   private voronoi: ReturnType<Delaunay<Float64Array>['voronoi']> | null = null;
   private sorted: Float64Array = new Float64Array(0);
-  private coords: Float64Array = new Float64Array(0);
   private identityPerm: Int32Array = new Int32Array(0);
   private buf = new Buffer64(256);
   private startSorted: Int32Array = new Int32Array(0);
   private keep: Uint8Array = new Uint8Array(0);
   private arrays: {
     area: Float64Array; perimeter: Float64Array; sides: Int32Array; edge: Uint8Array; bbox: Float64Array; centroid: Float64Array;
-    degree: Int32Array; fill: Int32Array; neighbours: Int32Array;
+    degree: Int32Array; fill: Int32Array; neighbours: Int32Array | null;
   } | null = null;
   // Normalisation of the last run, for cellPolygon.
   private lastInv = 1;
@@ -203,17 +202,11 @@ export class Tessellator {
     const sorted = this.sorted;
     let perm: Int32Array;
     if (reorder) {
-      if (this.coords.length !== 2 * n) this.coords = new Float64Array(2 * n);
-      const coords = this.coords;
-      for (let i = 0; i < n; i++) {
-        coords[2 * i] = (points[2 * i]! - field.x0) * s;
-        coords[2 * i + 1] = (points[2 * i + 1]! - field.y0) * s;
-      }
-      perm = hilbertOrder(coords, n, Math.max(Wn, Hn));
+      perm = hilbertOrder(points, field.x0, field.y0, s, n, Math.max(Wn, Hn));
       for (let k = 0; k < n; k++) {
         const i = perm[k]!;
-        sorted[2 * k] = coords[2 * i]!;
-        sorted[2 * k + 1] = coords[2 * i + 1]!;
+        sorted[2 * k] = (points[2 * i]! - field.x0) * s;
+        sorted[2 * k + 1] = (points[2 * i + 1]! - field.y0) * s;
       }
     } else {
       if (this.identityPerm.length !== n) this.identityPerm = identity(n);
@@ -268,7 +261,7 @@ export class Tessellator {
       a = {
         area: new Float64Array(n), perimeter: new Float64Array(n), sides: new Int32Array(n), edge: new Uint8Array(n),
         bbox: new Float64Array(4 * n), centroid: new Float64Array(2 * n), degree: new Int32Array(n + 1), fill: new Int32Array(n),
-        neighbours: new Int32Array(6 * n),
+        neighbours: this.reuse ? new Int32Array(6 * n) : null,
       };
       this.arrays = a;
     } else {
@@ -381,8 +374,8 @@ export class Tessellator {
     }
 
     const neighbourOffsets = a.degree;
-    const count = neighbourGraph(sorted, perm, triangles, halfedges, inedges, cc, Wn, Hn, n, sides, edge, keep, neighbourOffsets, a.fill, a.neighbours);
-    const neighbourIndex = this.reuse ? a.neighbours.subarray(0, count) : a.neighbours.slice(0, count);
+    // A one-off run allocates the index at its exact length once the degrees are known.
+    const neighbourIndex = neighbourGraph(sorted, perm, triangles, halfedges, inedges, cc, Wn, Hn, n, sides, edge, keep, neighbourOffsets, a.fill, a.neighbours);
 
     this.lastInv = inv;
     this.lastField = { ...field };
@@ -458,17 +451,18 @@ const HILBERT_STEP = (() => {
 
 /**
  * A permutation of the points along a Hilbert curve over a 2^k x 2^k grid covering [0, side]^2
- * (about one point per grid cell), by counting sort. (Hilbert 1891, Math. Ann. 38:459; pub, memory.)
+ * (about one point per grid cell), by counting sort, of the points normalised as (p − origin)·s.
+ * (Hilbert 1891, Math. Ann. 38:459; pub, memory.)
  */
-function hilbertOrder(coords: Float64Array, n: number, side: number): Int32Array {
+function hilbertOrder(points: Float64Array, x0: number, y0: number, s: number, n: number, side: number): Int32Array {
   const k = Math.min(10, Math.max(1, Math.ceil(Math.log2(Math.sqrt(n)))));
   const g = 1 << k;
   const scale = g / side;
   const key = new Int32Array(n);
   const count = new Int32Array(g * g + 1);
   for (let i = 0; i < n; i++) {
-    const x = Math.min(g - 1, Math.floor(coords[2 * i]! * scale));
-    const y = Math.min(g - 1, Math.floor(coords[2 * i + 1]! * scale));
+    const x = Math.min(g - 1, Math.floor((points[2 * i]! - x0) * s * scale));
+    const y = Math.min(g - 1, Math.floor((points[2 * i + 1]! - y0) * s * scale));
     let st = 0;
     let d = 0;
     for (let lev = k - 1; lev >= 0; lev--) {
@@ -604,14 +598,14 @@ function clippedLength(ax: number, ay: number, dx: number, dy: number, tmax: num
  * `degree` (n + 1, zeroed; becomes the offsets) and `neighbourIndex`). keep[e] holds the decision for the
  * edge of halfedge e when the cell walk already made it (1 neighbour, 2 not, 0 undecided): the walk of an
  * interior cell decides all its edges, and its sides are its degree, so only the edges around border
- * cells (edge = 1) are looked at here. Returns the length of the index; neighbours are listed in the
- * order of their edges' halfedge numbers.
+ * cells (edge = 1) are looked at here. Returns the index: a part of `buffer` when one is given, else a new
+ * array of exactly its length; neighbours are listed in the order of their edges' halfedge numbers.
  */
 function neighbourGraph(
   coords: Float64Array, perm: Int32Array, triangles: Uint32Array, halfedges: Int32Array, inedges: Int32Array, cc: Float64Array,
   W: number, H: number, n: number, sides: Int32Array, edge: Uint8Array,
-  keep: Uint8Array, degree: Int32Array, fill: Int32Array, neighbourIndex: Int32Array,
-): number {
+  keep: Uint8Array, degree: Int32Array, fill: Int32Array, buffer: Int32Array | null,
+): Int32Array {
   const m = triangles.length;
   for (let k = 0; k < n; k++) {
     const i = perm[k]!;
@@ -638,6 +632,7 @@ function neighbourGraph(
   }
   for (let i = 0; i < n; i++) degree[i + 1] = degree[i + 1]! + degree[i]!;
   const offsets = degree;
+  const neighbourIndex = buffer ? buffer.subarray(0, offsets[n]!) : new Int32Array(offsets[n]!);
   fill.set(offsets.subarray(0, n));
   for (let e = 0; e < m; e++) {
     if (keep[e] !== 1) continue;
@@ -646,7 +641,7 @@ function neighbourGraph(
     neighbourIndex[fill[p]!++] = q;
     neighbourIndex[fill[q]!++] = p;
   }
-  return offsets[n]!;
+  return neighbourIndex;
 }
 
 /** The neighbour decision of the edge of canonical halfedge c (the lower of the pair), made once: 1 if kept. */
