@@ -119,6 +119,8 @@ async function sendResult(id: string, a: Analysis, t0: number): Promise<Analysis
 async function persist(id: string, a: Analysis, base: LabelImage | null): Promise<void> {
   try {
     const db = await openSessionDb();
+    // Forgotten or replaced meanwhile: nothing of this one to store.
+    if (current.get(id) !== a) return;
     await db.put('results', { id, analysis: a });
     if (base) await db.put('base', { id, labels: base });
   } catch (e) {
@@ -324,8 +326,14 @@ const api: WorkerApi = {
       // As the command line records it: where the pixel size came from.
       if (o.kind === 'image') (a.summary as Record<string, unknown>).calibration = { source: req.calibrationSource ?? 'none' };
       current.set(req.id, a);
-      void persist(req.id, a, newBase);
-      return await sendResult(req.id, a, t0);
+      try {
+        return await sendResult(req.id, a, t0);
+      } finally {
+        // Stored once the page has the result: copying a large analysis into IndexedDB takes a second or
+        // more for 16 MP, and the page need not wait for it (a reload before it is done measures again).
+        // A newer result of the same image stores itself instead.
+        setTimeout(() => void persist(req.id, a, newBase), 0);
+      }
     } finally {
       if (controllers.get(req.id) === ctl) controllers.delete(req.id);
     }
