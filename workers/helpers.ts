@@ -63,17 +63,19 @@ export function outlineRgba(l: LabelImage, rgb: [number, number, number] = OUTLI
 
 /** Bounding box of each cell, 4 per cell (x0, y0, x1, y1; end exclusive, px); cell c at index 4 (c - 1). */
 export function cellBoxes(l: LabelImage): Int32Array {
-  const { width: w, labels, count } = l;
+  const { width: w, height: h, labels, count } = l;
   const b = new Int32Array(count * 4);
   for (let c = 0; c < count; c++) { b[4 * c] = 2 ** 31 - 1; b[4 * c + 1] = 2 ** 31 - 1; b[4 * c + 2] = -1; b[4 * c + 3] = -1; }
-  for (let i = 0; i < labels.length; i++) {
-    const v = labels[i];
-    if (v === 0) continue;
-    const x = i % w, y = (i - x) / w, k = 4 * (v - 1);
-    if (x < b[k]) b[k] = x;
-    if (y < b[k + 1]) b[k + 1] = y;
-    if (x + 1 > b[k + 2]) b[k + 2] = x + 1;
-    if (y + 1 > b[k + 3]) b[k + 3] = y + 1;
+  for (let y = 0, i = 0; y < h; y++) {
+    for (let x = 0; x < w; x++, i++) {
+      const v = labels[i];
+      if (v === 0) continue;
+      const k = 4 * (v - 1);
+      if (x < b[k]) b[k] = x;
+      if (y < b[k + 1]) b[k + 1] = y;
+      if (x + 1 > b[k + 2]) b[k + 2] = x + 1;
+      if (y + 1 > b[k + 3]) b[k + 3] = y + 1;
+    }
   }
   return b;
 }

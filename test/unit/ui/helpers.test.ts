@@ -87,3 +87,54 @@ describe('typed pixel size', () => {
     expect(formatP(0.0004)).toBe('< 0.001');
   });
 });
+
+describe('worker helpers against their plain statements', () => {
+  // Straightforward versions of the definitions above (derived), pixel by pixel with every bounds test.
+  const plainOutline = (l: LabelImage): number[] => {
+    const out: number[] = [];
+    for (let y = 0; y < l.height; y++) for (let x = 0; x < l.width; x++) {
+      const i = y * l.width + x;
+      const v = l.labels[i]!;
+      const edge = v !== 0 && (x === 0 || y === 0 || x === l.width - 1 || y === l.height - 1
+        || l.labels[i - 1] !== v || l.labels[i + 1] !== v || l.labels[i - l.width] !== v || l.labels[i + l.width] !== v);
+      out.push(...(edge ? [240, 228, 66, 255] : [0, 0, 0, 0]));
+    }
+    return out;
+  };
+  const plainBoxes = (l: LabelImage): number[] => {
+    const b: number[] = [];
+    for (let c = 1; c <= l.count; c++) {
+      let x0 = 2 ** 31 - 1, y0 = 2 ** 31 - 1, x1 = -1, y1 = -1;
+      for (let i = 0; i < l.labels.length; i++) {
+        if (l.labels[i] !== c) continue;
+        const x = i % l.width, y = Math.floor(i / l.width);
+        x0 = Math.min(x0, x); y0 = Math.min(y0, y); x1 = Math.max(x1, x + 1); y1 = Math.max(y1, y + 1);
+      }
+      b.push(x0, y0, x1, y1);
+    }
+    return b;
+  };
+  let seed = 5;
+  const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+  for (const [w, h] of [[1, 1], [1, 7], [9, 1], [2, 2], [13, 11], [40, 3]] as const) {
+    it(`random ${w} x ${h} label image: the same outline pixels and boxes`, () => {
+      const count = 4;
+      // Runs of labels so that cells are not all single pixels; a missing label keeps its empty box.
+      const labels = new Int32Array(w * h);
+      let v = 0;
+      for (let i = 0; i < labels.length; i++) { if (rnd() < 0.3) v = Math.floor(rnd() * count); labels[i] = v === 3 ? 0 : v; }
+      const l: LabelImage = { width: w, height: h, labels, count };
+      expect(Array.from(outlineRgba(l))).toEqual(plainOutline(l));
+      expect(Array.from(cellBoxes(l))).toEqual(plainBoxes(l));
+    });
+  }
+  it('the display image of an 8-bit ramp: grey in R, G and B, opaque, from the stretch table', () => {
+    const data = Uint8Array.from({ length: 256 * 4 }, (_, i) => i % 256);
+    const rgba = displayRgba({ width: 1024, height: 1, data, bitDepth: 8 });
+    for (let i = 0; i < data.length; i++) {
+      expect([rgba[4 * i + 1], rgba[4 * i + 2], rgba[4 * i + 3]]).toEqual([rgba[4 * i], rgba[4 * i], 255]);
+    }
+    // The 0.1 % tails of 1 024 pixels are one pixel each: level 0 stays 0, 255 stays 255, 128 maps to 128.
+    expect([rgba[0], rgba[4 * 128], rgba[4 * 255]]).toEqual([0, 128, 255]);
+  });
+});
