@@ -107,8 +107,7 @@ function percentiles(data: Float32Array, min: number, max: number, pLo: number, 
 export function otsuThreshold(cv: CV, img8: Uint8Array, width: number, height: number): number {
   return withMats((track) => {
     const src = track(matFromArray(cv, height, width, cv.CV_8UC1, img8));
-    const dst = track(new cv.Mat());
-    return cv.threshold(src, dst, 0, 255, cv.THRESH_BINARY | cv.THRESH_OTSU) as number;
+    return thresholdInto(cv, src, track(new cv.Mat()), { kind: 'otsu' });
   });
 }
 
@@ -132,8 +131,7 @@ export function thresholdMask(
   return withMats((track) => {
     const src = track(matFromArray(cv, height, width, cv.CV_8UC1, img8));
     const dst = track(new cv.Mat());
-    const block = method.blockPx % 2 === 1 ? method.blockPx : method.blockPx + 1;
-    cv.adaptiveThreshold(src, dst, 1, cv.ADAPTIVE_THRESH_MEAN_C, cv.THRESH_BINARY, block, 0);
+    thresholdInto(cv, src, dst, method);
     return new Uint8Array(dst.data as Uint8Array);
   });
 }
@@ -147,8 +145,6 @@ export interface ThresholdComponents {
   level: number;
   /** Pixels in the bright class (value > level, or above the local mean). */
   brightCount: number;
-  /** Which class the components are of. */
-  picked: 'bright' | 'dark';
   /** Components 1..count before selection; areas[l] = pixels of component l (areas[0] the rest). */
   count: number;
   areas: Int32Array;
@@ -182,20 +178,9 @@ export function thresholdComponents(
   return withMats((track) => {
     const src = track(matFromArray(cv, height, width, cv.CV_8UC1, img8));
     const mask = track(new cv.Mat());
-    let level: number;
-    if (method.kind === 'adaptive') {
-      level = -1;
-      const block = method.blockPx % 2 === 1 ? method.blockPx : method.blockPx + 1;
-      cv.adaptiveThreshold(src, mask, 1, cv.ADAPTIVE_THRESH_MEAN_C, cv.THRESH_BINARY, block, 0);
-    } else if (method.kind === 'otsu') {
-      level = cv.threshold(src, mask, 0, 1, cv.THRESH_BINARY | cv.THRESH_OTSU) as number;
-    } else {
-      level = method.level;
-      cv.threshold(src, mask, level, 1, cv.THRESH_BINARY);
-    }
+    const level = thresholdInto(cv, src, mask, method);
     const brightCount = cv.countNonZero(mask) as number;
-    const picked = pick(brightCount);
-    if (picked === 'dark') {
+    if (pick(brightCount) === 'dark') {
       // 1 − mask in place: the dark class.
       const m = mask.data as Uint8Array;
       for (let i = 0; i < m.length; i++) m[i] ^= 1;
@@ -212,11 +197,26 @@ export function thresholdComponents(
       const l = view[i]!;
       labels[i] = keep[l] ? l : 0;
     }
-    return { level, brightCount, picked, count: cc.count, areas: cc.areas, labels };
+    return { level, brightCount, count: cc.count, areas: cc.areas, labels };
   });
 }
 
 type Track = <M extends { delete(): void }>(m: M) => M;
+
+/**
+ * The 0/1 mask of the bright class of an 8-bit Mat into `dst`: value > level (Otsu's or the given), or
+ * value > the mean over a block of `blockPx` (made odd). Returns the level, −1 for adaptive.
+ */
+function thresholdInto(cv: CV, src: CV, dst: CV, method: MaskThreshold): number {
+  if (method.kind === 'adaptive') {
+    const block = method.blockPx % 2 === 1 ? method.blockPx : method.blockPx + 1;
+    cv.adaptiveThreshold(src, dst, 1, cv.ADAPTIVE_THRESH_MEAN_C, cv.THRESH_BINARY, block, 0);
+    return -1;
+  }
+  if (method.kind === 'otsu') return cv.threshold(src, dst, 0, 1, cv.THRESH_BINARY | cv.THRESH_OTSU) as number;
+  cv.threshold(src, dst, method.level, 1, cv.THRESH_BINARY);
+  return method.level;
+}
 
 /** A 0/1 Mat eroded with a disc-like (elliptic) element of radius r px; outside the image counts as 1. */
 function erodeMat(cv: CV, track: Track, src: CV, r: number): CV {

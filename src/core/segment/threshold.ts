@@ -28,13 +28,14 @@ export function thresholdPrepared(
   s: { threshold: ThresholdMethod; manualThreshold: number; adaptiveBlockPx: number },
   what: 'cells' | 'bodies',
 ): ThresholdResult {
+  const method = maskThreshold(s);
   let level: number;
   let bright: Uint8Array;
-  if (s.threshold === 'adaptive') {
+  if (method.kind === 'adaptive') {
     level = -1;
-    bright = thresholdMask(cv, prepared, width, height, { kind: 'adaptive', blockPx: s.adaptiveBlockPx });
+    bright = thresholdMask(cv, prepared, width, height, method);
   } else {
-    level = s.threshold === 'manual' ? s.manualThreshold : otsuThreshold(cv, prepared, width, height);
+    level = method.kind === 'global' ? method.level : otsuThreshold(cv, prepared, width, height);
     bright = thresholdMask(cv, prepared, width, height, { kind: 'global', level });
   }
   let brightCount = 0;
