@@ -7,12 +7,13 @@ import * as Comlink from 'comlink';
 import { zipSync } from 'fflate';
 import { KINETICS_THUMB_SIDE, THUMB_SIDE } from './protocol';
 import type {
-  AnalysisResult, AnalyzeRequest, ExportFile, ExportKind, KineticsRequest, OpenResult, Overlay, PreviewResult, ProgressFn, WorkerApi,
+  AnalysisResult, AnalyzeRequest, ExportFile, ExportKind, KineticsRequest, OpenResult, Overlay, PageAnalysis, PreviewResult, ProgressFn, WorkerApi,
 } from './protocol';
 import type { Analysis } from '../src/core/analysis.types';
 import type { GreyImage, LabelImage } from '../src/core/types';
 import { resolveSettings, type SettingsInput } from '../src/core/settings';
 import { applyEdits } from '../src/core/edit/labels';
+import { labelRuns } from '../src/core/labelRuns';
 import { openSessionDb } from '../src/ui/db';
 import type { ClosablePool } from '../src/core/reference/workerPool';
 import { createBrowserReferencePool } from './referencePool';
@@ -97,20 +98,23 @@ async function thumbOf(b: ImageBitmap, quality: ResizeQuality): Promise<ImageBit
 }
 
 async function makeOverlay(a: Analysis): Promise<Overlay> {
-  if (!a.labels) return { outlines: null, outlinesThumb: null, cellBoxes: new Int32Array(0) };
+  if (!a.labels) return { outlines: null, outlinesThumb: null, cellBoxes: new Int32Array(0), runs: null };
   const rgba = outlineRgba(a.labels);
   const outlines = await bitmapOf(rgba, a.labels.width, a.labels.height);
-  return { outlines, outlinesThumb: await thumbOf(outlines, 'medium'), cellBoxes: cellBoxes(a.labels) };
+  return { outlines, outlinesThumb: await thumbOf(outlines, 'medium'), cellBoxes: cellBoxes(a.labels), runs: labelRuns(a.labels) };
 }
 
 async function sendResult(id: string, a: Analysis, t0: number): Promise<AnalysisResult> {
   const overlay = await makeOverlay(a);
-  // The worker keeps its own copy (for edits and exports); the page gets a transferred clone.
-  const copy = structuredClone(a);
+  // The worker keeps the analysis (for edits and exports); the page gets a transferred clone of all
+  // but the label image, whose run-length form (overlay.runs) is a small fraction of it to make.
+  const { labels: _kept, ...rest } = a;
+  const copy: PageAnalysis = structuredClone(rest);
   const { randomnessData } = await import('../src/ui/plots');
   const result: AnalysisResult = { id, analysis: copy, overlay, elapsedMs: performance.now() - t0, plotData: randomnessData(a) };
   const transfers: Transferable[] = collectTransfers(copy);
   transfers.push(overlay.cellBoxes.buffer as ArrayBuffer);
+  if (overlay.runs) transfers.push(...collectTransfers(overlay.runs));
   if (overlay.outlines) transfers.push(overlay.outlines);
   if (overlay.outlinesThumb) transfers.push(overlay.outlinesThumb);
   return Comlink.transfer(result, transfers);

@@ -3,6 +3,7 @@
  * this file, so a change in one is a compile error in the other.
  */
 import type { Analysis } from '../src/core/analysis.types';
+import type { LabelRuns } from '../src/core/labelRuns';
 import type { SettingsInput } from '../src/core/settings';
 import type { EditOp } from '../src/core/edit/labels';
 
@@ -43,12 +44,20 @@ export interface Overlay {
   outlinesThumb: ImageBitmap | null;
   /** Bounding box of each cell in the label image, 4 per cell: x0, y0, x1, y1 (px, exclusive end). */
   cellBoxes: Int32Array;
+  /**
+   * The label image in run-length form (the cell under the pointer, a selected cell's pixels); null for
+   * points. The page gets this instead of the label image, which stays in the worker.
+   */
+  runs: LabelRuns | null;
 }
+
+/** An analysis as the page holds it: everything but the label image (see {@link Overlay.runs}). */
+export type PageAnalysis = Omit<Analysis, 'labels'>;
 
 /** A finished analysis as it reaches the page. */
 export interface AnalysisResult {
   id: string;
-  analysis: Analysis;
+  analysis: PageAnalysis;
   overlay: Overlay;
   /** Milliseconds spent in the worker. */
   elapsedMs: number;

@@ -3,7 +3,10 @@
  * the random-seeding (Poisson–Voronoi) reference. Pure: Analysis in, plain series out; the panel turns them
  * into plotly traces.
  */
-import type { Analysis } from '../core/analysis.types';
+import type { Analysis as FullAnalysis } from '../core/analysis.types';
+
+/** What the plots read of an analysis: anything but the label image (the page does not hold it). */
+type Analysis = Omit<FullAnalysis, 'labels'>;
 import {
   PV_ABOAV_A, PV_AREA_GAMMA_SHAPE, PV_LEWIS_SLOPE, PV_SIDES_DISTRIBUTION, PV_SIDES_VARIANCE,
 } from '../core/reference/constants';

@@ -325,7 +325,7 @@ export class AppState {
   /** Applies a label edit to the selected entry and re-measures; a failed edit is rolled back. */
   edit(op: EditOp): void {
     const e = this.selected;
-    if (!e || !e.result?.analysis.labels) return;
+    if (!e || !e.result?.overlay.runs) return;
     this.editMessage = null;
     const before = e.ops;
     const beforeRedo = e.redo;
