@@ -162,6 +162,10 @@ function targets(sums: CaseSummary[], browser: Record<string, unknown> | null, r
   if (off) {
     const a = off.median.analysis!;
     out.push({ target: '(16 MP walls with the reference off, whole analysis < 2500 ms)', measured: `${a.toFixed(0)} ms`, met: a < 2500 });
+    // With the reference on, the statistics stage is mostly the wait for the replicates; off, it is the
+    // per-cell work the share target is about.
+    const mts = off.median.measure! + off.median.tessellate! + off.median.statistics!;
+    out.push({ target: '(16 MP walls with the reference off, measure + tessellate + statistics < 1/4)', measured: `${mts.toFixed(0)} ms of ${a.toFixed(0)} ms (${((100 * mts) / a).toFixed(0)} %)`, met: mts < a / 4 });
   }
   for (const [id, lim] of [['points-1000000', 3000], ['points-100000', 400]] as const) {
     const p = by(id);
