@@ -3,10 +3,8 @@
  * the random-seeding (Poisson–Voronoi) reference. Pure: Analysis in, plain series out; the panel turns them
  * into plotly traces.
  */
-import type { Analysis as FullAnalysis } from '../core/analysis.types';
-
-/** What the plots read of an analysis: anything but the label image (the page does not hold it). */
-type Analysis = Omit<FullAnalysis, 'labels'>;
+// The page's form of an analysis (all but the label image), which the worker's full analysis also is.
+import type { PageAnalysis as Analysis } from '../../workers/protocol';
 import {
   PV_ABOAV_A, PV_AREA_GAMMA_SHAPE, PV_LEWIS_SLOPE, PV_SIDES_DISTRIBUTION, PV_SIDES_VARIANCE,
 } from '../core/reference/constants';
