@@ -20,37 +20,31 @@ export interface LabelRuns {
   runLabel: Int32Array;
 }
 
-/** The run-length form of a label image (one pass; at most one run per pixel). */
+/** The run-length form of a label image (two passes: count the runs, then write them; at most one run a pixel). */
 export function labelRuns(img: LabelImage): LabelRuns {
   const { width: w, height: h, labels: L, count } = img;
   const rowStart = new Int32Array(h + 1);
-  // Grown by doubling from a guess of 16 runs a row; trimmed at the end.
-  let runX = new Int32Array(Math.max(16, 16 * h));
-  let runLabel = new Int32Array(runX.length);
+  // A run starts at each row's first pixel and wherever the label changes along the row.
   let k = 0;
   for (let y = 0; y < h; y++) {
     rowStart[y] = k;
     const row = y * w;
-    let x = 0;
-    while (x < w) {
-      const l = L[row + x]!;
-      if (k === runX.length) {
-        const nx = new Int32Array(2 * k);
-        nx.set(runX);
-        runX = nx;
-        const nl = new Int32Array(2 * k);
-        nl.set(runLabel);
-        runLabel = nl;
-      }
-      runX[k] = x;
-      runLabel[k] = l;
-      k++;
-      x++;
-      while (x < w && L[row + x] === l) x++;
-    }
+    for (let x = 0; x < w; x++) if (x === 0 || L[row + x] !== L[row + x - 1]) k++;
   }
   rowStart[h] = k;
-  return { width: w, height: h, count, rowStart, runX: runX.slice(0, k), runLabel: runLabel.slice(0, k) };
+  const runX = new Int32Array(k);
+  const runLabel = new Int32Array(k);
+  k = 0;
+  for (let y = 0; y < h; y++) {
+    const row = y * w;
+    for (let x = 0; x < w; x++) {
+      if (x === 0 || L[row + x] !== L[row + x - 1]) {
+        runX[k] = x;
+        runLabel[k++] = L[row + x]!;
+      }
+    }
+  }
+  return { width: w, height: h, count, rowStart, runX, runLabel };
 }
 
 /** The label at pixel (x, y) (whole numbers inside the image), by binary search in the row's runs. */
