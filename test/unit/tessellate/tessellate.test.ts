@@ -248,3 +248,64 @@ describe('Tessellator: a reused engine gives what a fresh tessellation gives', (
     }
   });
 });
+
+describe('Tessellator: large sets walked in radial order', () => {
+  /** Index of the first difference (-1: the same length and the same values, bit for bit). */
+  const firstDifference = (a: ArrayLike<number>, b: ArrayLike<number>): number => {
+    if (a.length !== b.length) return Math.min(a.length, b.length);
+    for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return i;
+    return -1;
+  };
+  const same = (a: ArrayLike<number>, b: ArrayLike<number>) => expect(firstDifference(a, b)).toBe(-1);
+  const keys = ['area', 'perimeter', 'sides', 'centroid', 'edge', 'bbox', 'neighbourOffsets', 'neighbourIndex', 'polygonOffsets', 'polygonCoords', 'triangles'] as const;
+
+  it('gives the values of the caller\'s order bit for bit, in every output form (derived: the processing order must not change results)', async () => {
+    const { Tessellator, RADIAL_ORDER_MIN_POINTS } = await import('../../../src/core/tessellate');
+    // Above the threshold, so tessellate() itself takes the radial path; and a small set forced onto it.
+    // Random points are in general position: no four on one circle, so the triangulation is unique.
+    const big = randomSet(RADIAL_ORDER_MIN_POINTS + 1000, 11);
+    const small = randomSet(2000, 12);
+    for (const p of [big, small]) {
+      const plain = new Tessellator(false, Infinity).run(p, field, 'polygons') as ReturnType<typeof tessellate>;
+      const radial = p === big ? tessellate(p, field) : (new Tessellator(false, 0).run(p, field, 'polygons') as ReturnType<typeof tessellate>);
+      for (const k of keys) same(radial[k], plain[k]);
+      // The reused engine and the retained polygons, read back cell by cell.
+      const engine = new Tessellator(true, 0);
+      const plainEngine = new Tessellator(true, Infinity);
+      for (let round = 0; round < 2; round++) {
+        const r = engine.run(p, field, 'retained');
+        const q = plainEngine.run(p, field, 'retained');
+        for (const k of ['area', 'sides', 'neighbourIndex'] as const) same(r[k], q[k]);
+        const a: number[] = [];
+        const b: number[] = [];
+        for (let i = 0; i < p.length / 2; i += 97) {
+          engine.cellPolygon(i, a);
+          plainEngine.cellPolygon(i, b);
+          same(a, b);
+          same(a, plain.polygonCoords.subarray(2 * plain.polygonOffsets[i]!, 2 * plain.polygonOffsets[i + 1]!));
+        }
+      }
+    }
+  });
+
+  it('matches d3-delaunay\'s own clipped cells on a large set (reference library: d3-delaunay 6)', async () => {
+    const { RADIAL_ORDER_MIN_POINTS } = await import('../../../src/core/tessellate');
+    const n = RADIAL_ORDER_MIN_POINTS + 500;
+    const pts = randomSet(n, 13);
+    const t = tessellate(pts, field);
+    expect(sum(t.area)).toBeCloseTo(1000 * 700, 4);
+    const d3 = new Delaunay(pts.slice());
+    const v = d3.voronoi([field.x0, field.y0, field.x1, field.y1]);
+    for (let i = 0; i < n; i += 101) {
+      const poly = v.cellPolygon(i);
+      let a2 = 0;
+      for (let k = 0; k + 1 < poly.length; k++) a2 += poly[k]![0] * poly[k + 1]![1] - poly[k + 1]![0] * poly[k]![1];
+      expect(t.area[i]).toBeCloseTo(Math.abs(a2) / 2, 6);
+      const mine = Array.from(t.neighbourIndex.subarray(t.neighbourOffsets[i]!, t.neighbourOffsets[i + 1]!)).sort((x, y) => x - y);
+      const theirs = [...d3.neighbors(i)].sort((x, y) => x - y);
+      // d3 also lists Delaunay neighbours whose shared Voronoi edge lies wholly outside the field.
+      for (const j of mine) expect(theirs).toContain(j);
+      if (!t.edge[i]) expect(mine).toEqual(theirs);
+    }
+  });
+});
