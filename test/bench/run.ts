@@ -4,7 +4,8 @@
  *
  * Flags: --runs N (timed runs per case, default 5), --only id,id (cases by id; 'reference' for the reference alone), --browser (also the
  * 16 MP image through the web app's worker in headless Chromium), --browser-runs N (default 2),
- * --no-node (browser part only).
+ * --no-node (browser part only), --no-huge-pages (the Node cases without the command line's huge-page
+ * setting, src/node/hugePages.ts).
  */
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -12,6 +13,7 @@ import { cpus, loadavg, totalmem } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { STAGES, type CaseResult, type RunTimes } from './stages';
+import { wantsHugePages, withHugePages } from '../../src/node/hugePages';
 import { defaultCases, imageFile, type BenchCase } from './inputs';
 import type { ReferenceCaseResult } from './referenceCase';
 
@@ -23,10 +25,11 @@ interface Flags {
   browser: boolean;
   browserRuns: number;
   node: boolean;
+  hugePages: boolean;
 }
 
 function parseFlags(argv: string[]): Flags {
-  const f: Flags = { runs: 5, only: null, browser: false, browserRuns: 2, node: true };
+  const f: Flags = { runs: 5, only: null, browser: false, browserRuns: 2, node: true, hugePages: true };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i]!;
     if (a === '--runs') f.runs = Math.max(1, Number(argv[++i]));
@@ -34,7 +37,8 @@ function parseFlags(argv: string[]): Flags {
     else if (a === '--browser') f.browser = true;
     else if (a === '--browser-runs') (f.browserRuns = Math.max(1, Number(argv[++i]))), (f.browser = true);
     else if (a === '--no-node') f.node = false;
-    else throw new Error(`Unknown flag ${a}; use --runs N, --only id,id, --browser, --browser-runs N or --no-node.`);
+    else if (a === '--no-huge-pages') f.hugePages = false;
+    else throw new Error(`Unknown flag ${a}; use --runs N, --only id,id, --browser, --browser-runs N, --no-node or --no-huge-pages.`);
   }
   if (!Number.isInteger(f.runs) || !Number.isInteger(f.browserRuns)) throw new Error('--runs and --browser-runs take a whole number.');
   return f;
@@ -89,6 +93,12 @@ function summarise(c: BenchCase, r: CaseResult): CaseSummary {
   };
 }
 
+/**
+ * The environment of the Node cases: the command line's (src/node/hugePages.ts), so that the figures are
+ * those of `tessellab analyze`; with --no-huge-pages, this process's own.
+ */
+let caseEnv: NodeJS.ProcessEnv = process.env;
+
 function runCase(c: BenchCase, runs: number): CaseResult {
   let file: string | null = null;
   if (c.kind === 'image') {
@@ -101,6 +111,7 @@ function runCase(c: BenchCase, runs: number): CaseResult {
     cwd: ROOT,
     encoding: 'utf8',
     maxBuffer: 64 * 2 ** 20,
+    env: caseEnv,
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   return JSON.parse(out.trim().split('\n').pop()!) as CaseResult;
@@ -111,6 +122,7 @@ function runReferenceCases(runs: number): ReferenceCaseResult[] {
   const out = execFileSync(process.execPath, ['--import', 'tsx/esm', join(ROOT, 'test/bench/referenceCase.ts'), String(runs)], {
     cwd: ROOT,
     encoding: 'utf8',
+    env: caseEnv,
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   return JSON.parse(out.trim().split('\n').pop()!) as ReferenceCaseResult[];
@@ -192,7 +204,8 @@ function targets(sums: CaseSummary[], browser: Record<string, unknown> | null, r
 
 async function main(): Promise<void> {
   const flags = parseFlags(process.argv.slice(2));
-  const m = machine();
+  if (flags.hugePages && wantsHugePages(process.env, process.platform)) caseEnv = withHugePages(process.env);
+  const m: Record<string, unknown> = { ...machine(), glibcTunables: caseEnv.GLIBC_TUNABLES ?? null };
   const load0 = loadavg();
   const started = new Date().toISOString();
   process.stderr.write(`Tessellab benchmark on ${m.cpu}, ${m.cores} cores, Node ${m.node}; load average ${load0.map((x) => x.toFixed(2)).join(' ')}\n`);
@@ -224,7 +237,8 @@ async function main(): Promise<void> {
   const load1 = loadavg();
   const rows = sums.map(row);
   const t = targets(sums, browser, refs);
-  const machineLine = `${m.cpu}, ${m.cores} cores, Node ${m.node}, ${m.platform}; load average ${load0[0]!.toFixed(1)} at the start, ${load1[0]!.toFixed(1)} at the end; median of ${flags.runs} runs after a warm-up, opencv.js load excluded.`;
+  const memory = m.glibcTunables ? `, GLIBC_TUNABLES=${m.glibcTunables}` : '';
+  const machineLine = `${m.cpu}, ${m.cores} cores, Node ${m.node}, ${m.platform}${memory}; load average ${load0[0]!.toFixed(1)} at the start, ${load1[0]!.toFixed(1)} at the end; median of ${flags.runs} runs after a warm-up, opencv.js load excluded.`;
   if (rows.length) {
     process.stdout.write(`\n${textTable(HEAD, rows)}\n\n${machineLine}\n`);
   }
