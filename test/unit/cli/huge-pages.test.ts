@@ -6,6 +6,8 @@
  * starts itself again with it passes on the work's output and exit code.
  */
 import { execFile } from 'node:child_process';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
@@ -41,7 +43,8 @@ describe('huge pages for the command line', () => {
       const help = await run(['--help'], env);
       expect(help.code).toBe(0);
       expect(help.out).toContain('tessellab analyze');
-      const bad = await run(['analyze', join(ROOT, 'no-such-image.png')], env);
+      // The batch summary (with the error in its row) goes to a scratch folder, not the checkout.
+      const bad = await run(['analyze', join(ROOT, 'no-such-image.png'), '--out', mkdtempSync(join(tmpdir(), 'tessellab-huge-'))], env);
       expect(bad.code).toBe(1);
       expect(bad.err).toContain('does not exist');
     }
