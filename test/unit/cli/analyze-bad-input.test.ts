@@ -70,8 +70,19 @@ describe('tessellab analyze: bad input', () => {
       expect(existsSync(join(out, 'good.cells.csv'))).toBe(true);
       const summary = readFileSync(join(out, 'summary.csv'), 'utf8');
       expect(summary).toMatch(/good\.png,300,240,walls/);
+      expect(r.err).toContain(`1 of 2 inputs failed; the others were written to ${out} (summary.csv lists why each failed).`);
     });
   }
+
+  it('a batch in which every input fails says so, and where the errors are listed', async () => {
+    const out = join(dir, 'o-all-failed');
+    const r = await run(['analyze', join(dir, 'nope1.png'), join(dir, 'nope2.png'), '--out', out]);
+    expect(r.code).toBe(1);
+    expect(r.err).toContain(`All 2 inputs failed; summary.csv in ${out} lists why.`);
+    expect(readFileSync(join(out, 'summary.csv'), 'utf8')).toMatch(/nope2\.png,.*does not exist/);
+    const one = await run(['analyze', join(dir, 'nope1.png'), '--out', out]);
+    expect(one.err).toContain(`The input failed; summary.csv in ${out} lists why.`);
+  });
 
   it('a points CSV with a non-numeric value names the line', async () => {
     const p = file('pts.csv', 'x,y\n1,2\n3,4\nfive,6\n');
