@@ -5,7 +5,7 @@
 import type { Analysis } from '../analysis.types';
 import type { Polygons } from '../cv/contours';
 import { cellsCsv } from './csv';
-import { cellsGeoJson, overlaySvg } from './geometry';
+import { cellsGeoJsonBytes, overlaySvg } from './geometry';
 import { settingsJson, summaryJson } from './json';
 import { labelsPng } from './labels';
 
@@ -50,7 +50,7 @@ export function imageFiles(a: Analysis, fileName: string, outlines: Polygons | n
         out.push({ name: `${stem}.summary.json`, data: enc.encode(summaryJson(a, { image: fileName.split(/[\\/]/).pop() ?? fileName })), mime: 'application/json' });
         break;
       case 'cells.geojson':
-        out.push({ name: `${stem}.cells.geojson`, data: enc.encode(cellsGeoJson(a, outlines)), mime: 'application/geo+json' });
+        out.push({ name: `${stem}.cells.geojson`, data: cellsGeoJsonBytes(a, outlines), mime: 'application/geo+json' });
         break;
       case 'overlay.svg':
         out.push({ name: `${stem}.overlay.svg`, data: enc.encode(overlaySvg(a, outlines)), mime: 'image/svg+xml' });

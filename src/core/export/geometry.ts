@@ -7,6 +7,7 @@ import type { Analysis } from '../analysis.types';
 import type { Polygons } from '../cv/contours';
 import { drawCentroids, drawPolygons, drawVoronoi, r2, SvgPath } from './path';
 import { formatNumber } from './csv';
+import { Utf8Builder } from './utf8';
 
 /**
  * cells.geojson: a FeatureCollection with, per cell, a Polygon feature (the segmented outline, or the
@@ -14,8 +15,39 @@ import { formatNumber } from './csv';
  * Properties are the table's values as cells.csv prints them (formatNumber; null where not finite),
  * coordinates rounded to 0.01 px. The text is written directly, as JSON.stringify would write the same
  * objects (numbers as String gives them), without building a million objects first.
+ *
+ * As one string: for a million cells that is about 450 MB of text, near the longest string JavaScript
+ * engines make (2^29 − 24 characters in V8); files are written from {@link cellsGeoJsonBytes}, which has no
+ * such limit.
  */
 export function cellsGeoJson(analysis: Analysis, outlines: Polygons | null): string {
+  return Array.from(geoJsonPieces(analysis, outlines)).join('');
+}
+
+/**
+ * cells.geojson as UTF-8 bytes, the same text as {@link cellsGeoJson} byte for byte, encoded a batch of
+ * features at a time into one growing buffer: no string of the whole file is ever made.
+ * @param batchChars characters of text gathered before each encoding (a parameter for tests)
+ */
+export function cellsGeoJsonBytes(analysis: Analysis, outlines: Polygons | null, batchChars = 1 << 20): Uint8Array {
+  const out = new Utf8Builder();
+  let batch: string[] = [];
+  let chars = 0;
+  for (const piece of geoJsonPieces(analysis, outlines)) {
+    batch.push(piece);
+    chars += piece.length;
+    if (chars >= batchChars) {
+      out.append(batch.join(''));
+      batch = [];
+      chars = 0;
+    }
+  }
+  out.append(batch.join(''));
+  return out.bytes();
+}
+
+/** The text of cells.geojson in pieces (the head, then each feature with its separator, then the tail). */
+function* geoJsonPieces(analysis: Analysis, outlines: Polygons | null): Generator<string> {
   const t = analysis.tessellation;
   const polys = outlines ?? { offsets: t.polygonOffsets, coords: t.polygonCoords };
   const n = t.points.length / 2;
@@ -24,14 +56,16 @@ export function cellsGeoJson(analysis: Analysis, outlines: Polygons | null): str
   // Keys as JSON writes them; a column called "kind" would be overwritten in place by the feature kind.
   const keys = names.map((k) => `${JSON.stringify(k)}:`);
   const kindAt = names.indexOf('kind');
-  const parts: string[] = [];
   const coords = polys.coords;
+  const head = JSON.stringify({ type: 'FeatureCollection', properties: { units: 'px', umPerPx: analysis.settings.umPerPx, width: analysis.width, height: analysis.height } });
+  yield `${head.slice(0, -1)},"features":[`;
+  let sep = '';
   for (let i = 0; i < n; i++) {
     const a = polys.offsets[i]!;
     const b = polys.offsets[i + 1]!;
     if (b - a >= 3) {
       // Pieces joined once per feature: one flat string each, not a rope of hundreds of small ones.
-      const f: string[] = ['{"type":"Feature","properties":{'];
+      const f: string[] = [sep, '{"type":"Feature","properties":{'];
       for (let c = 0; c < cols.length; c++) {
         const v = cols[c]![i]!;
         if (c) f.push(',');
@@ -41,12 +75,13 @@ export function cellsGeoJson(analysis: Analysis, outlines: Polygons | null): str
       f.push('},"geometry":{"type":"Polygon","coordinates":[[');
       for (let k = a; k < b; k++) f.push('[', r2(coords[2 * k]!), ',', r2(coords[2 * k + 1]!), '],');
       f.push('[', r2(coords[2 * a]!), ',', r2(coords[2 * a + 1]!), ']]]}}');
-      parts.push(f.join(''));
+      yield f.join('');
+      sep = ',';
     }
-    parts.push(`{"type":"Feature","properties":{"cell":${i + 1},"kind":"centroid"},"geometry":{"type":"Point","coordinates":[${r2(t.points[2 * i]!)},${r2(t.points[2 * i + 1]!)}]}}`);
+    yield `${sep}{"type":"Feature","properties":{"cell":${i + 1},"kind":"centroid"},"geometry":{"type":"Point","coordinates":[${r2(t.points[2 * i]!)},${r2(t.points[2 * i + 1]!)}]}}`;
+    sep = ',';
   }
-  const head = JSON.stringify({ type: 'FeatureCollection', properties: { units: 'px', umPerPx: analysis.settings.umPerPx, width: analysis.width, height: analysis.height } });
-  return `${head.slice(0, -1)},"features":[${parts.join(',')}]}\n`;
+  yield ']}\n';
 }
 
 export interface OverlayStyle {

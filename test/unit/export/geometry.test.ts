@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { analyze } from '../../../src/core/analyze';
-import { cellsCsv, cellsGeoJson, overlaySvg } from '../../../src/core/export/index';
+import { cellsCsv, cellsGeoJson, cellsGeoJsonBytes, overlaySvg } from '../../../src/core/export/index';
 import { r2 } from '../../../src/core/export/path';
 import { mulberry32 } from '../../../src/core/random';
 import { seedPoints } from '../../../src/core/synth/seeds';
@@ -54,6 +54,25 @@ describe('cells.geojson', () => {
   });
 });
 
+describe('cells.geojson as bytes', () => {
+  it('is the UTF-8 of the text, byte for byte, whatever the batch size (WHATWG Encoding: TextEncoder writes UTF-8)', async () => {
+    const pts = seedPoints(200, 300, 300, 'random', 8);
+    const a = await analyze({ kind: 'points', points: pts, width: 300, height: 300 }, { pattern: 'points', reference: { replicates: 0 } });
+    // A column name outside ASCII (2- and 3-byte UTF-8: µ, ², and a 4-byte one as a surrogate pair) tests the
+    // buffer's growth as well.
+    a.columns['area_µm²_𝔸'] = a.columns[Object.keys(a.columns)[0]!]!;
+    const text = cellsGeoJson(a, null);
+    const utf8 = new TextEncoder().encode(text);
+    for (const batch of [1, 7, 1000, 1 << 20]) {
+      const b = cellsGeoJsonBytes(a, null, batch);
+      expect(b.length).toBe(utf8.length);
+      expect(Buffer.compare(Buffer.from(b), Buffer.from(utf8))).toBe(0);
+    }
+    expect(new TextDecoder().decode(cellsGeoJsonBytes(a, null))).toBe(text);
+    expect(Object.keys((JSON.parse(text) as { features: { properties: object }[] }).features[0]!.properties)).toContain('area_µm²_𝔸');
+  });
+});
+
 describe('overlay.svg', () => {
   it('draws each Voronoi cell as a closed subpath with coordinates to 0.01 px', async () => {
     const pts = seedPoints(50, 200, 200, 'random', 2);
@@ -63,5 +82,26 @@ describe('overlay.svg', () => {
     expect(d.split('Z').filter(Boolean).length).toBe(50);
     const t = a.tessellation;
     expect(d.startsWith(`M${String(Math.round(t.polygonCoords[0]! * 100) / 100)} ${String(Math.round(t.polygonCoords[1]! * 100) / 100)}L`)).toBe(true);
+  });
+});
+
+describe('UTF-8 builder', () => {
+  it('gives what TextEncoder gives for the whole text, for text of 1- to 4-byte characters and any first buffer size (WHATWG Encoding Standard, UTF-8 encoder)', async () => {
+    const { Utf8Builder } = await import('../../../src/core/export/utf8');
+    const rng = mulberry32(21);
+    const alphabet = ['a', '7', '"', 'µ', 'é', '²', '€', '中', '𝔸', '😀'];
+    for (const initial of [1, 2, 3, 5, 64, 1 << 16]) {
+      const b = new Utf8Builder(initial);
+      const pieces: string[] = [];
+      for (let k = 0; k < 300; k++) {
+        let p = '';
+        const len = Math.floor(rng() * 12);
+        for (let j = 0; j < len; j++) p += alphabet[Math.floor(rng() * alphabet.length)]!;
+        pieces.push(p);
+        b.append(p);
+      }
+      const want = new TextEncoder().encode(pieces.join(''));
+      expect(Buffer.compare(Buffer.from(b.bytes()), Buffer.from(want))).toBe(0);
+    }
   });
 });
