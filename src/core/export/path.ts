@@ -59,20 +59,30 @@ export function drawCentroids(sink: PathSink, points: Float64Array, r = 2): void
   }
 }
 
-/** Builds an SVG path `d` string, coordinates rounded to 0.01 px. */
+/**
+ * Builds an SVG path `d` string, coordinates rounded to 0.01 px. The commands are joined a few thousand
+ * at a time, so that a million cells leave thousands of strings alive rather than millions.
+ */
 export class SvgPath implements PathSink {
   private parts: string[] = [];
+  private chunk: string[] = [];
+  private add(command: string): void {
+    if (this.chunk.push(command) >= 4096) {
+      this.parts.push(this.chunk.join(''));
+      this.chunk = [];
+    }
+  }
   moveTo(x: number, y: number): void {
-    this.parts.push(`M${r2(x)} ${r2(y)}`);
+    this.add(`M${r2(x)} ${r2(y)}`);
   }
   lineTo(x: number, y: number): void {
-    this.parts.push(`L${r2(x)} ${r2(y)}`);
+    this.add(`L${r2(x)} ${r2(y)}`);
   }
   closePath(): void {
-    this.parts.push('Z');
+    this.add('Z');
   }
   toString(): string {
-    return this.parts.join('');
+    return this.parts.join('') + this.chunk.join('');
   }
 }
 
