@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs';
 import { analyze, outlinesOf } from '../../src/core/analyze';
 import type { Analysis } from '../../src/core/analysis.types';
 import { loadCv } from '../../src/core/cv/index';
-import { cellsCsv, cellsGeoJsonBytes, labelsPng, overlaySvg, summaryJson } from '../../src/core/export/index';
+import { cellsCsv, cellsGeoJsonBytes, labelsPng, overlaySvgBytes, summaryJson } from '../../src/core/export/index';
 import { decodeImage } from '../../src/core/image/decode';
 import { clearReferenceCache } from '../../src/core/reference/montecarlo';
 import { sharedReferencePool } from '../../src/node/referencePool';
@@ -53,7 +53,7 @@ async function exportAll(a: Analysis, errors: Record<string, string>): Promise<n
   tryOne('summary.json', () => summaryJson(a));
   const outlines = await outlinesOf(a);
   tryOne('cells.geojson', () => cellsGeoJsonBytes(a, outlines));
-  tryOne('overlay.svg', () => overlaySvg(a, outlines));
+  tryOne('overlay.svg', () => overlaySvgBytes(a, outlines));
   if (a.labels) tryOne('labels.png', () => labelsPng(a));
   return bytes;
 }

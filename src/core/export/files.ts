@@ -5,7 +5,7 @@
 import type { Analysis } from '../analysis.types';
 import type { Polygons } from '../cv/contours';
 import { cellsCsv } from './csv';
-import { cellsGeoJsonBytes, overlaySvg } from './geometry';
+import { cellsGeoJsonBytes, overlaySvgBytes } from './geometry';
 import { settingsJson, summaryJson } from './json';
 import { labelsPng } from './labels';
 
@@ -53,7 +53,7 @@ export function imageFiles(a: Analysis, fileName: string, outlines: Polygons | n
         out.push({ name: `${stem}.cells.geojson`, data: cellsGeoJsonBytes(a, outlines), mime: 'application/geo+json' });
         break;
       case 'overlay.svg':
-        out.push({ name: `${stem}.overlay.svg`, data: enc.encode(overlaySvg(a, outlines)), mime: 'image/svg+xml' });
+        out.push({ name: `${stem}.overlay.svg`, data: overlaySvgBytes(a, outlines), mime: 'image/svg+xml' });
         break;
       case 'labels.png':
         if (a.labels) out.push({ name: `${stem}.labels.png`, data: labelsPng(a), mime: 'image/png' });

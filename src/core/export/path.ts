@@ -81,8 +81,12 @@ export class SvgPath implements PathSink {
   closePath(): void {
     this.add('Z');
   }
+  /** The path data in the batches joined so far, then the rest. */
+  pieces(): string[] {
+    return [...this.parts, this.chunk.join('')];
+  }
   toString(): string {
-    return this.parts.join('') + this.chunk.join('');
+    return this.pieces().join('');
   }
 }
 

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { analyze } from '../../../src/core/analyze';
-import { cellsCsv, cellsGeoJson, cellsGeoJsonBytes, overlaySvg } from '../../../src/core/export/index';
+import { cellsCsv, cellsGeoJson, cellsGeoJsonBytes, overlaySvg, overlaySvgBytes } from '../../../src/core/export/index';
 import { r2 } from '../../../src/core/export/path';
 import { mulberry32 } from '../../../src/core/random';
 import { seedPoints } from '../../../src/core/synth/seeds';
@@ -82,6 +82,19 @@ describe('overlay.svg', () => {
     expect(d.split('Z').filter(Boolean).length).toBe(50);
     const t = a.tessellation;
     expect(d.startsWith(`M${String(Math.round(t.polygonCoords[0]! * 100) / 100)} ${String(Math.round(t.polygonCoords[1]! * 100) / 100)}L`)).toBe(true);
+  });
+});
+
+describe('overlay.svg as bytes', () => {
+  it('is the UTF-8 of the text, byte for byte, in every style (WHATWG Encoding: TextEncoder writes UTF-8)', async () => {
+    // More commands than one batch of SvgPath, and a calibrated title (µ: two bytes in UTF-8).
+    const pts = seedPoints(3000, 1200, 900, 'random', 4);
+    const a = await analyze({ kind: 'points', points: pts, width: 1200, height: 900 }, { pattern: 'points', umPerPx: 0.25, reference: { replicates: 0 } });
+    for (const style of [{}, { voronoi: false }, { centroids: false }]) {
+      const text = overlaySvg(a, null, style);
+      expect(text).toContain('0.25 µm per px');
+      expect(Buffer.compare(Buffer.from(overlaySvgBytes(a, null, style)), Buffer.from(new TextEncoder().encode(text)))).toBe(0);
+    }
   });
 });
 
