@@ -97,7 +97,7 @@ export const command: Command = {
     await writeOut(outDir, 'settings.json', settingsJson({ ...lastSettings, umPerPx: userUm ?? lastSettings.umPerPx }));
     await writeOut(outDir, 'summary.csv', summaryCsv(rows));
     // The folder is not followed by a full stop: "." or "out/." would read as part of the path.
-    if (failed === files.length) process.stderr.write(`${failed === 1 ? 'The input' : `All ${failed} inputs`} failed; summary.csv in ${outDir} lists why.\n`);
+    if (failed > 0 && failed === files.length) process.stderr.write(`${failed === 1 ? 'The input' : `All ${failed} inputs`} failed; summary.csv in ${outDir} lists why.\n`);
     else if (failed) process.stderr.write(`${failed} of ${files.length} inputs failed; the others were written to ${outDir} (summary.csv lists why each failed).\n`);
     return failed ? 1 : 0;
   },
