@@ -97,9 +97,11 @@ function summarise(c: BenchCase, r: CaseResult): CaseSummary {
  * The environment of the Node cases: the command line's (src/node/hugePages.ts), so that the figures are
  * those of `tessellab analyze`; with --no-huge-pages, this process's own.
  */
-let caseEnv: NodeJS.ProcessEnv = process.env;
+function caseEnvironment(hugePages: boolean): NodeJS.ProcessEnv {
+  return hugePages && wantsHugePages(process.env, process.platform) ? withHugePages(process.env) : process.env;
+}
 
-function runCase(c: BenchCase, runs: number): CaseResult {
+function runCase(c: BenchCase, runs: number, caseEnv: NodeJS.ProcessEnv): CaseResult {
   let file: string | null = null;
   if (c.kind === 'image') {
     const t = performance.now();
@@ -118,7 +120,7 @@ function runCase(c: BenchCase, runs: number): CaseResult {
 }
 
 /** The reference alone (test/bench/referenceCase.ts) in its own process. */
-function runReferenceCases(runs: number): ReferenceCaseResult[] {
+function runReferenceCases(runs: number, caseEnv: NodeJS.ProcessEnv): ReferenceCaseResult[] {
   const out = execFileSync(process.execPath, ['--import', 'tsx/esm', join(ROOT, 'test/bench/referenceCase.ts'), String(runs)], {
     cwd: ROOT,
     encoding: 'utf8',
@@ -204,7 +206,7 @@ function targets(sums: CaseSummary[], browser: Record<string, unknown> | null, r
 
 async function main(): Promise<void> {
   const flags = parseFlags(process.argv.slice(2));
-  if (flags.hugePages && wantsHugePages(process.env, process.platform)) caseEnv = withHugePages(process.env);
+  const caseEnv = caseEnvironment(flags.hugePages);
   const m: Record<string, unknown> = { ...machine(), glibcTunables: caseEnv.GLIBC_TUNABLES ?? null };
   const load0 = loadavg();
   const started = new Date().toISOString();
@@ -214,7 +216,7 @@ async function main(): Promise<void> {
     const cases = defaultCases().filter((c) => !flags.only || flags.only.includes(c.id));
     for (const c of cases) {
       process.stderr.write(`${c.label}: ${flags.runs} runs after a warm-up...\n`);
-      const s = summarise(c, runCase(c, flags.runs));
+      const s = summarise(c, runCase(c, flags.runs, caseEnv));
       sums.push(s);
       process.stderr.write(`  analysis ${s.median.analysis!.toFixed(0)} ms, total ${s.median.total!.toFixed(0)} ms, peak RSS ${s.peakRssMB.toFixed(0)} MB\n`);
       for (const [k, v] of Object.entries(s.exportErrors)) process.stderr.write(`  export ${k} failed: ${v}\n`);
@@ -223,7 +225,7 @@ async function main(): Promise<void> {
   let refs: ReferenceCaseResult[] = [];
   if (flags.node && (!flags.only || flags.only.includes('reference'))) {
     process.stderr.write(`random-seeding reference alone: ${flags.runs} runs after a warm-up...\n`);
-    refs = runReferenceCases(flags.runs);
+    refs = runReferenceCases(flags.runs, caseEnv);
   }
   let browser: Record<string, unknown> | null = null;
   if (flags.browser) {

@@ -7,7 +7,7 @@ import type { Analysis } from '../analysis.types';
 import type { Polygons } from '../cv/contours';
 import { drawCentroids, drawPolygons, drawVoronoi, r2, SvgPath } from './path';
 import { formatNumber } from './csv';
-import { Utf8Builder } from './utf8';
+import { utf8OfPieces } from './utf8';
 
 /**
  * cells.geojson: a FeatureCollection with, per cell, a Polygon feature (the segmented outline, or the
@@ -30,20 +30,7 @@ export function cellsGeoJson(analysis: Analysis, outlines: Polygons | null): str
  * @param batchChars characters of text gathered before each encoding (a parameter for tests)
  */
 export function cellsGeoJsonBytes(analysis: Analysis, outlines: Polygons | null, batchChars = 1 << 20): Uint8Array {
-  const out = new Utf8Builder();
-  let batch: string[] = [];
-  let chars = 0;
-  for (const piece of geoJsonPieces(analysis, outlines)) {
-    batch.push(piece);
-    chars += piece.length;
-    if (chars >= batchChars) {
-      out.append(batch.join(''));
-      batch = [];
-      chars = 0;
-    }
-  }
-  out.append(batch.join(''));
-  return out.bytes();
+  return utf8OfPieces(geoJsonPieces(analysis, outlines), batchChars);
 }
 
 /** The text of cells.geojson in pieces (the head, then each feature with its separator, then the tail). */
@@ -104,9 +91,7 @@ export function overlaySvg(analysis: Analysis, outlines: Polygons | null, style:
  * whole file (about 150 MB of text for a million cells).
  */
 export function overlaySvgBytes(analysis: Analysis, outlines: Polygons | null, style: OverlayStyle = {}): Uint8Array {
-  const out = new Utf8Builder();
-  for (const piece of overlayPieces(analysis, outlines, style)) out.append(piece);
-  return out.bytes();
+  return utf8OfPieces(overlayPieces(analysis, outlines, style));
 }
 
 /** The text of overlay.svg in pieces: its lines, each path's data in the batches SvgPath joined. */

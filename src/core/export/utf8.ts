@@ -25,3 +25,24 @@ export class Utf8Builder {
     return this.buf.slice(0, this.used);
   }
 }
+
+/**
+ * UTF-8 bytes of text given in pieces, gathered into batches of about `batchChars` characters before each
+ * encoding: the whole text never becomes one string.
+ */
+export function utf8OfPieces(pieces: Iterable<string>, batchChars = 1 << 20): Uint8Array {
+  const out = new Utf8Builder();
+  let batch: string[] = [];
+  let chars = 0;
+  for (const piece of pieces) {
+    batch.push(piece);
+    chars += piece.length;
+    if (chars >= batchChars) {
+      out.append(batch.join(''));
+      batch = [];
+      chars = 0;
+    }
+  }
+  out.append(batch.join(''));
+  return out.bytes();
+}
