@@ -299,7 +299,9 @@ const api: WorkerApi = {
     controllers.set(req.id, ctl);
     try {
       const core = await pipeline(onProgress);
-      const opts = { onProgress: (s: string, f: number) => onProgress?.(s, f), signal: ctl.signal, referencePool: referencePool() };
+      const opts = {
+        onProgress: (s: string, f: number) => onProgress?.(s, f), signal: ctl.signal, referencePool: referencePool(), calibrationSource: req.calibrationSource,
+      };
       let base = bases.get(req.id) ?? null;
       if (req.reuseLabels && !base) {
         const db = await openSessionDb();
@@ -327,8 +329,6 @@ const api: WorkerApi = {
           a = await core.reanalyzeLabels(applyEdits(newBase, req.ops), fieldImage(), req.settings, size, opts);
         }
       }
-      // As the command line records it: where the pixel size came from.
-      if (o.kind === 'image') (a.summary as Record<string, unknown>).calibration = { source: req.calibrationSource ?? 'none' };
       current.set(req.id, a);
       try {
         return await sendResult(req.id, a, t0);
@@ -406,7 +406,7 @@ const api: WorkerApi = {
   async exportZip(ids: string[], kinds: ExportKind[]) {
     const ex = await exporters();
     const entries: Record<string, Uint8Array> = {};
-    const rows: { name: string; summary: Record<string, unknown> | null }[] = [];
+    const rows: { name: string; summary: Analysis['summary'] | null }[] = [];
     const used = new Set<string>();
     for (const id of ids) {
       const a = current.get(id) ?? (await (await openSessionDb()).get('results', id))?.analysis;

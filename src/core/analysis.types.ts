@@ -4,8 +4,8 @@ import type { Tessellation } from './tessellate/types';
 import type { GrainSizeResult } from './grain/types';
 import type { RandomnessResult } from './stats/randomness';
 
-/** A JSON-serialisable summary: the keys other tools read are documented in README (summary.json). */
-export type Summary = Record<string, unknown>;
+export type { Summary } from './summary';
+import type { Summary } from './summary';
 
 /** Everything one analysis of one image (or point set) produces. */
 export interface Analysis {

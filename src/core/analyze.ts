@@ -13,14 +13,14 @@ import { voronoiLikeness } from './stats/likeness';
 import { randomness, referenceOptionsFor, type RandomnessResult } from './stats/randomness';
 import type { Reference } from './reference/montecarlo';
 import { startReference, type ReferencePool } from './reference/parallel';
-import type { Analysis, Summary } from './analysis.types';
+import type { Analysis } from './analysis.types';
 import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
 import { cellSums, type CellSums } from './measure/kernel';
 import { measureColumns, type MeasureContext } from './measure/registry';
 import { segmentBodies } from './segment/bodies';
 import { segmentWalls, type SegmentResult } from './segment/walls';
 import { resolveSettings, type Settings, type SettingsInput } from './settings';
-import { buildSummary } from './summary';
+import { buildSummary, type CalibrationSource, type EventsSummary, type GrainSizeSummary, type SegmentInfo } from './summary';
 import { tessellate } from './tessellate/index';
 import type { Tessellation } from './tessellate/types';
 import type { GreyImage, LabelImage, Progress, Rect } from './types';
@@ -39,14 +39,16 @@ export interface AnalyzeOptions {
    * worker_threads, the app's web workers). Without one it is drawn on this thread; the result is the same.
    */
   referencePool?: ReferencePool | null;
+  /** Where settings.umPerPx came from, recorded in the summary; default 'user' when it is set, else 'none'. */
+  calibrationSource?: CalibrationSource;
 }
 
-/** Segmentation details kept with an analysis (for the Detect panel and the summary). */
-export interface SegmentInfo {
-  threshold: number;
-  polarity: string;
-  minCellAreaPx: number;
+/** The calibration source an analysis records. */
+function calibrationSourceOf(settings: Settings, opts: AnalyzeOptions): CalibrationSource {
+  return opts.calibrationSource ?? (settings.umPerPx === null ? 'none' : 'user');
 }
+
+export type { SegmentInfo } from './summary';
 
 function check(signal?: AbortSignal): void {
   if (signal?.aborted) throw new CancelledError();
@@ -253,7 +255,7 @@ async function measureLabels(
     await reference?.tick();
     // Grain size before the statistics, so that it runs while the pool is drawing the reference.
     let grain: GrainSizeResult | null = null;
-    let grainSummary: Record<string, unknown> | null = null;
+    let grainSummary: GrainSizeSummary | undefined;
     if (settings.pattern === 'walls') {
       progress('grain size', 0);
       const g = rateGrainSize(labels, field, settings);
@@ -265,7 +267,6 @@ async function measureLabels(
     }
     progress('statistics', 0);
     const sides = settings.pattern === 'walls' ? neighbours : tess.sides;
-    const summary = buildSummary({ settings, width, height, field, count: n, area: sums.n, sides, edge: sums.edge, bbox: bboxOf(sums), tess, labels, segment });
     // Voronoi-likeness needs no reference: measured while the pool finishes drawing it.
     const likeness = reference ? voronoiLikeness(imageLabels, tess, sums.edge) : undefined;
     const rnd = randomness({
@@ -281,9 +282,10 @@ async function measureLabels(
       neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
       minCellAreaPx: segment?.minCellAreaPx,
     });
-    addRandomness(summary, rnd, settings.umPerPx);
-    if (events) summary.events = eventsSummary(events, sums.n, sums.edge);
-    if (grainSummary) summary.grainSize = grainSummary;
+    const summary = buildSummary({
+      settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts),
+      events: events ? eventsSummary(events, sums.n, sums.edge) : undefined, grainSize: grainSummary,
+    });
     progress('statistics', 1);
     return { width, height, field, settings, labels, columns, tessellation: tess, summary, grain, randomness: rnd };
   } catch (e) {
@@ -297,7 +299,7 @@ async function measureLabels(
  * ASTM E112 rating of a walls pattern. A missing pixel size or another problem that makes the rating
  * impossible becomes `{ error }` in the summary; the rest of the analysis stands.
  */
-function rateGrainSize(labels: LabelImage, field: Rect, settings: Settings): { result: GrainSizeResult | null; summary: Record<string, unknown> } {
+function rateGrainSize(labels: LabelImage, field: Rect, settings: Settings): { result: GrainSizeResult | null; summary: GrainSizeSummary } {
   try {
     const result = grainSize({ labels, umPerPx: settings.umPerPx, field: { x0: 0, y0: 0, x1: field.x1 - field.x0, y1: field.y1 - field.y0 }, pattern: 'walls', settings });
     return { result, summary: grainSizeSummary(result) };
@@ -333,7 +335,7 @@ function labelsInImage(labels: LabelImage, field: Rect): LabelImage {
 }
 
 /** Events per cell against Poisson counts proportional to area, over interior cells. */
-function eventsSummary(counts: Int32Array, area: Float64Array, edge: Uint8Array): Record<string, unknown> {
+function eventsSummary(counts: Int32Array, area: Float64Array, edge: Uint8Array): EventsSummary {
   const keep: number[] = [];
   for (let i = 0; i < counts.length; i++) if (!edge[i]) keep.push(i);
   let total = 0;
@@ -345,33 +347,6 @@ function eventsSummary(counts: Int32Array, area: Float64Array, edge: Uint8Array)
     if (e instanceof TessellabError) return { total, error: e.message };
     throw e;
   }
-}
-
-/** The randomness figures in the summary, lengths in the summary's unit (µm when calibrated). */
-function addRandomness(summary: Summary, r: RandomnessResult, umPerPx: number | null): void {
-  const u = umPerPx ?? 1;
-  const ref = r.reference as { replicates?: number; seed?: number } | null;
-  summary.randomness = {
-    verdict: r.verdict,
-    verdictText: r.verdictText,
-    alpha: r.alpha,
-    basis: r.basis,
-    tests: r.tests,
-    reference: ref ? { R: ref.replicates ?? null, seed: ref.seed ?? null, ...ref } : null,
-    warnings: r.warnings,
-  };
-  const sides = summary.sides as Record<string, unknown>;
-  const refP: Record<string, number | null> = {};
-  r.sides.n.forEach((k, i) => (refP[k] = r.sides.reference[i] ?? null));
-  sides.reference = refP;
-  sides.chiSquare = r.sides.chiSquare;
-  sides.lemaitre = r.sides.lemaitre;
-  summary.clarkEvans = r.clarkEvans;
-  summary.largestGap = r.largestGap ? { x: r.largestGap.x * u, y: r.largestGap.y * u, radius: r.largestGap.radius * u, cell: r.largestGap.cell } : null;
-  summary.lewis = { fit: r.lewis.fit, referenceSlopeMean: r.lewis.reference.slopeMean };
-  summary.aboavWeaire = { a: r.aboavWeaire.a, fit: r.aboavWeaire.fit, referenceAMean: r.aboavWeaire.reference.aMean };
-  summary.areaDistribution = { cv: r.areas.cv, variance: r.areas.variance, gammaShape: r.areas.gammaShape, ksDistance: r.areas.ksDistance };
-  summary.voronoiLikeness = r.voronoiLikeness;
 }
 
 async function analyzePoints(points: Float64Array, width: number, height: number, settings: Settings, opts: AnalyzeOptions): Promise<Analysis> {
@@ -413,10 +388,11 @@ async function analyzePoints(points: Float64Array, width: number, height: number
     };
     const columns = measureColumns(ctx, 'points');
     progress('statistics', 0);
-    const summary = buildSummary({ settings, width, height, field, count: n, area: tess.area, sides: tess.sides, edge: tess.edge, bbox: tess.bbox, tess, labels: null, segment: null });
     const rnd = randomness({ ...(reference ? await reference.result() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
-    addRandomness(summary, rnd, settings.umPerPx);
-    if (events) summary.events = eventsSummary(events, tess.area, tess.edge);
+    const summary = buildSummary({
+      settings, width, height, field, count: n, edge: tess.edge, segment: null, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts),
+      events: events ? eventsSummary(events, tess.area, tess.edge) : undefined,
+    });
     progress('statistics', 1);
     return { width, height, field, settings, labels: null, columns, tessellation: tess, summary, randomness: rnd };
   } catch (e) {

@@ -1,12 +1,143 @@
 /**
- * The summary of one analysis: the figures other tools read from summary.json (keys documented in the
- * README). All statistics over interior cells (edge = 0).
+ * The summary of one analysis: the figures other tools read from summary.json. One typed, versioned
+ * interface, built by one pure function from the analysis's parts; nothing patches it afterwards. Its JSON
+ * Schema (docs/summary.schema.json) is generated from this interface by scripts/make-summary-schema.mjs.
+ *
+ * The cell figures (area, sides) are those of the cells in the statistics, the same sample as the tests
+ * table and the plots: interior cells (edge = 0) at or above the minimum cell area, weighted by the edge
+ * rule (stats/pattern.ts cellSample).
  */
-import type { Summary } from './analysis.types';
-import type { SegmentInfo } from './analyze';
-import type { Settings } from './settings';
-import type { Tessellation } from './tessellate/types';
-import type { LabelImage, Rect } from './types';
+import type { ResolvedPixelSize } from './image/calibration';
+import type { PatternKind, Settings } from './settings';
+import type { RandomnessResult, TestRow, Verdict } from './stats/randomness';
+import type { ReferenceSummary } from './reference/montecarlo';
+import type { EventsDispersion } from './stats/events';
+import type { Rect } from './types';
+
+/** The version of summary.json's layout; raised whenever a key changes meaning or is removed. */
+export const SUMMARY_VERSION = 2;
+
+/** Where the pixel size came from: the user (typed, or a scale bar), the image file, or nowhere. */
+export type CalibrationSource = ResolvedPixelSize['source'];
+
+/** Segmentation details kept with an analysis (for the Detect panel and the summary). */
+export interface SegmentInfo {
+  threshold: number;
+  polarity: string;
+  minCellAreaPx: number;
+}
+
+/** A least-squares line in JSON (null where it could not be fitted). */
+export interface LineFitJson {
+  slope: number | null;
+  intercept: number | null;
+  r2: number | null;
+}
+
+/** Events per cell against Poisson counts proportional to area (interior cells), or why there is no test. */
+export type EventsSummary = ({ total: number } & EventsDispersion) | { total: number; error: string };
+
+/** One grain-size figure's interval (G units). */
+export type GInterval = [number | null, number | null] | null;
+
+/** ASTM E112 / E1382 rating in summary.json (grain/index.ts grainSizeSummary), or why there is none. */
+export type GrainSizeSummary =
+  | {
+    G: number | null;
+    method: string | null;
+    ci95: GInterval;
+    relativeAccuracyPct: number | null;
+    iso643: number | null;
+    umPerPx: number;
+    fieldArea_mm2: number | null;
+    planimetric: {
+      G: number | null; NA_per_mm2: number | null; count: number; inside: number; cut: number; corner: number; rule: string; testShape: string;
+      testArea_mm2: number | null; ci95: GInterval; relativeAccuracyPct: number | null; placements: number; iso643: number | null;
+    } | null;
+    intercept: {
+      G: number | null; meanIntercept_um: number | null; NL_per_mm: number | null; P: number; N: number; lineLength_mm: number | null;
+      anisotropy: number | null; ci95: GInterval; relativeAccuracyPct: number | null; placements: number; iso643: number | null;
+    } | null;
+    meanArea: {
+      G: number | null; G_unweighted: number | null; grains: number; meanArea_um2: number | null; meanAreaWeighted_um2: number | null;
+      gSd: number | null; duplex: boolean; iso643: number | null;
+    } | null;
+    warnings: string[];
+    cautions: string[];
+  }
+  | { G: null; error: string };
+
+/** summary.json. Lengths and areas in µm and µm² when calibrated (umPerPx not null), else px and px². */
+export interface Summary {
+  /** The layout version, {@link SUMMARY_VERSION}. */
+  tessellab: typeof SUMMARY_VERSION;
+  width: number;
+  height: number;
+  pattern: PatternKind;
+  /** Micrometres per pixel, or null when unknown (every figure is then in px). */
+  umPerPx: number | null;
+  units: { length: 'px' | 'um'; area: 'px2' | 'um2' };
+  calibration: { source: CalibrationSource };
+  /** The analysed rectangle (px) and its area (summary units). */
+  field: Rect & { area: number };
+  segmentation: SegmentInfo | null;
+  cells: {
+    count: number;
+    /** Cells not touching the field border. */
+    interior: number;
+    edge: number;
+    /** Cells in the statistics (interior, at or above the minimum area; see the edge rule). */
+    inStatistics: number;
+    /** Cells per unit area of the field (all cells). */
+    densityPerArea: number;
+  };
+  /** Areas of the cells in the statistics: segmented areas (walls, bodies) or Voronoi areas (points). */
+  area: {
+    mean: number | null;
+    cv: number | null;
+    /** Variance of the normalised area A/⟨A⟩. */
+    variance: number | null;
+    gammaShape: number | null;
+    ksDistance: number | null;
+    n: number;
+    source: 'segmentation' | 'voronoi';
+  };
+  /** Side numbers of the cells in the statistics (walls: segmentation neighbours; bodies, points: Voronoi sides). */
+  sides: {
+    mean: number | null;
+    mu2: number | null;
+    p6: number | null;
+    n: number;
+    /** Fraction of cells with n sides, for each n present. */
+    distribution: Record<string, number>;
+    counts: Record<string, number>;
+    source: 'segmentation' | 'voronoi';
+    /** The random-seeding reference's mean p(n). */
+    reference: Record<string, number | null>;
+    chiSquare: RandomnessResult['sides']['chiSquare'];
+    lemaitre: RandomnessResult['sides']['lemaitre'];
+  };
+  randomness: {
+    verdict: Verdict | null;
+    verdictText: string;
+    alpha: number;
+    basis: RandomnessResult['basis'];
+    /** One row per statistic of the registry shown in the tests table (stats/registry.ts). */
+    tests: TestRow[];
+    reference: ReferenceSummary | null;
+    warnings: string[];
+  };
+  clarkEvans: RandomnessResult['clarkEvans'];
+  /** Centre and radius of the largest empty circle among the centroids (summary units), or null. */
+  largestGap: { x: number; y: number; radius: number; cell: number } | null;
+  lewis: { fit: LineFitJson; referenceSlopeMean: number | null };
+  aboavWeaire: { a: number | null; fit: LineFitJson; referenceAMean: number | null };
+  voronoiLikeness: RandomnessResult['voronoiLikeness'];
+  /** Present when events were given. */
+  events?: EventsSummary;
+  /** Present for walls patterns. */
+  grainSize?: GrainSizeSummary;
+}
 
 export interface SummaryInput {
   settings: Settings;
@@ -14,81 +145,60 @@ export interface SummaryInput {
   height: number;
   field: Rect;
   count: number;
-  /** Observed cell areas (px²): segmented pixel counts, or Voronoi areas for points. */
-  area: Float64Array;
-  /** Observed side counts: segmentation neighbours for walls, Voronoi sides otherwise. */
-  sides: Int32Array;
   edge: Uint8Array;
-  bbox: Float64Array;
-  tess: Tessellation;
-  labels: LabelImage | null;
   segment: SegmentInfo | null;
+  randomness: RandomnessResult;
+  calibrationSource: CalibrationSource;
+  events?: EventsSummary;
+  grainSize?: GrainSizeSummary;
 }
 
-/** Mean and coefficient of variation (sample sd / mean) of the selected values. */
-export function meanCv(values: ArrayLike<number>, keep: (i: number) => boolean): { mean: number; cv: number; n: number } {
-  let n = 0;
-  let s = 0;
-  for (let i = 0; i < values.length; i++) if (keep(i)) (s += values[i]!), n++;
-  const mean = n ? s / n : NaN;
-  let v = 0;
-  for (let i = 0; i < values.length; i++) if (keep(i)) v += (values[i]! - mean) ** 2;
-  const sd = n > 1 ? Math.sqrt(v / (n - 1)) : NaN;
-  return { mean, cv: sd / mean, n };
-}
-
-/**
- * Side-count statistics: mean, μ₂ = ⟨(n − ⟨n⟩)²⟩ (population variance, as the topology literature defines
- * it; Weaire & Rivier 1984, Contemp. Phys. 25:59), p(6), and the distribution p(n).
- */
-export function sideStats(sides: ArrayLike<number>, keep: (i: number) => boolean): { mean: number; mu2: number; p6: number; n: number; distribution: Record<string, number>; counts: Record<string, number> } {
-  const counts: Record<string, number> = {};
-  let n = 0;
-  let s = 0;
-  for (let i = 0; i < sides.length; i++) {
-    if (!keep(i)) continue;
-    const k = sides[i]!;
-    counts[k] = (counts[k] ?? 0) + 1;
-    s += k;
-    n++;
-  }
-  const mean = n ? s / n : NaN;
-  let v = 0;
-  for (let i = 0; i < sides.length; i++) if (keep(i)) v += (sides[i]! - mean) ** 2;
-  const distribution: Record<string, number> = {};
-  for (const k of Object.keys(counts).sort((a, b) => Number(a) - Number(b))) distribution[k] = counts[k]! / n;
-  return { mean, mu2: n ? v / n : NaN, p6: n ? (counts[6] ?? 0) / n : NaN, n, distribution, counts };
-}
-
+/** The figures of an analysis as summary.json holds them. Pure: the same input gives the same object. */
 export function buildSummary(inp: SummaryInput): Summary {
-  const { settings, width, height, field, count, edge } = inp;
-  const interior = (i: number) => edge[i] === 0;
+  const { settings, width, height, field, count, edge, randomness: r } = inp;
   let nInterior = 0;
   for (let i = 0; i < count; i++) if (edge[i] === 0) nInterior++;
   const u = settings.umPerPx;
-  const a2 = u === null ? 1 : u * u;
-  const areaStats = meanCv(inp.area, interior);
-  const sides = sideStats(inp.sides, interior);
+  const k = u ?? 1;
+  const a2 = k * k;
   const fieldArea = (field.x1 - field.x0) * (field.y1 - field.y0);
+  const distribution: Record<string, number> = {};
+  const counts: Record<string, number> = {};
+  const reference: Record<string, number | null> = {};
+  r.sides.n.forEach((n, i) => {
+    if (r.sides.counts[i]! > 0) {
+      distribution[n] = r.sides.observed[i]!;
+      counts[n] = r.sides.counts[i]!;
+    }
+    reference[n] = r.sides.reference[i] ?? null;
+  });
+  const g = r.largestGap;
   return {
-    tessellab: 1,
+    tessellab: SUMMARY_VERSION,
     width,
     height,
     pattern: settings.pattern,
     umPerPx: u,
     units: { length: u === null ? 'px' : 'um', area: u === null ? 'px2' : 'um2' },
+    calibration: { source: inp.calibrationSource },
     field: { ...field, area: fieldArea * a2 },
     segmentation: inp.segment,
-    cells: { count, interior: nInterior, edge: count - nInterior, densityPerArea: count / (fieldArea * a2) },
-    area: { mean: areaStats.mean * a2, cv: areaStats.cv, n: areaStats.n, source: settings.pattern === 'points' ? 'voronoi' : 'segmentation' },
-    sides: {
-      mean: sides.mean,
-      mu2: sides.mu2,
-      p6: sides.p6,
-      n: sides.n,
-      distribution: sides.distribution,
-      counts: sides.counts,
-      source: settings.pattern === 'walls' ? 'segmentation' : 'voronoi',
+    cells: { count, interior: nInterior, edge: count - nInterior, inStatistics: r.interiorCells, densityPerArea: count / (fieldArea * a2) },
+    area: {
+      mean: r.areas.mean === null ? null : r.areas.mean * a2, cv: r.areas.cv, variance: r.areas.variance, gammaShape: r.areas.gammaShape, ksDistance: r.areas.ksDistance,
+      n: r.interiorCells, source: settings.pattern === 'points' ? 'voronoi' : 'segmentation',
     },
+    sides: {
+      mean: r.sides.mean, mu2: r.sides.mu2, p6: r.sides.p6, n: r.interiorCells, distribution, counts,
+      source: settings.pattern === 'walls' ? 'segmentation' : 'voronoi', reference, chiSquare: r.sides.chiSquare, lemaitre: r.sides.lemaitre,
+    },
+    randomness: { verdict: r.verdict, verdictText: r.verdictText, alpha: r.alpha, basis: r.basis, tests: r.tests, reference: r.reference, warnings: r.warnings },
+    clarkEvans: r.clarkEvans,
+    largestGap: g ? { x: g.x * k, y: g.y * k, radius: g.radius * k, cell: g.cell } : null,
+    lewis: { fit: r.lewis.fit, referenceSlopeMean: r.lewis.reference.slopeMean },
+    aboavWeaire: { a: r.aboavWeaire.a, fit: r.aboavWeaire.fit, referenceAMean: r.aboavWeaire.reference.aMean },
+    voronoiLikeness: r.voronoiLikeness,
+    ...(inp.events ? { events: inp.events } : {}),
+    ...(inp.grainSize ? { grainSize: inp.grainSize } : {}),
   };
 }

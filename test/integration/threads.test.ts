@@ -28,7 +28,7 @@ describe('reference threads change nothing in the results', () => {
     clearReferenceCache();
     const stats: number[] = [];
     const many = await analyze({ kind: 'image', image: img }, settings, { referencePool: pool, onProgress: (s, f) => s === 'statistics' && stats.push(f) });
-    expect((many.summary.randomness as { reference: { R: number } }).reference.R).toBe(39);
+    expect(many.summary.randomness.reference?.replicates).toBe(39);
     expect(summaryJson(many)).toBe(summaryJson(one));
     // The wait for the reference moves the statistics stage's progress (common practice: progress on long work).
     expect(stats[0]).toBe(0);

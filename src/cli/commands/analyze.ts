@@ -3,6 +3,7 @@
  * For each image: <stem>.cells.csv, .summary.json, .cells.geojson, .overlay.svg, .labels.png; for the run:
  * settings.json and summary.csv. A bad image gets one line on stderr; the others are still analysed.
  */
+import type { Summary } from '../../core/summary';
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { analyze, outlinesOf } from '../../core/analyze';
@@ -55,7 +56,7 @@ export const command: Command = {
     const files = a.positional;
     // Worker threads draw each image's random-seeding reference while the rest of its analysis runs.
     const referencePool = sharedReferencePool();
-    const rows: { name: string; summary: Record<string, unknown> | null; error?: string }[] = [];
+    const rows: { name: string; summary: Summary | null; error?: string }[] = [];
     let failed = 0;
     let lastSettings = base;
     for (let i = 0; i < files.length; i++) {
@@ -76,14 +77,13 @@ export const command: Command = {
           if (img.pages.length > 1) process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${img.pages.length} pages; analysing the first (use kinetics for a series)\n`);
           const px = resolvePixelSize(userUm, img.umPerPx);
           const settings = { ...base, umPerPx: px.umPerPx };
-          analysis = await analyze({ kind: 'image', image: img.pages[0]!, name }, settings, { events, referencePool, onProgress: (s, f) => f === 0 && say(s) });
-          (analysis.summary as Record<string, unknown>).calibration = { source: px.source };
+          analysis = await analyze({ kind: 'image', image: img.pages[0]!, name }, settings, { events, referencePool, calibrationSource: px.source, onProgress: (s, f) => f === 0 && say(s) });
         }
         lastSettings = analysis.settings;
         say('writing');
         const outlines = await outlinesOf(analysis);
         for (const f of imageFiles(analysis, name, outlines)) await writeOut(outDir, f.name, f.data);
-        const s = analysis.summary as { cells: { count: number; interior: number } };
+        const s = analysis.summary;
         say(`done: ${s.cells.count} cells (${s.cells.interior} interior)`);
         rows.push({ name, summary: analysis.summary });
       } catch (e) {

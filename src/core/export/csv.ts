@@ -2,6 +2,7 @@
  * CSV writers (RFC 4180: comma-separated, CRLF line ends, fields quoted when they hold a comma, quote or
  * line break). Pure: values in, text out; the web app and the command line write the same bytes.
  */
+import type { Summary } from '../summary';
 import Papa from 'papaparse';
 import type { Analysis } from '../analysis.types';
 
@@ -58,10 +59,10 @@ export const SUMMARY_CSV_KEYS = [
 ];
 
 /** One row per image: the image name and the main figures of its summary. */
-export function summaryCsv(rows: { name: string; summary: Record<string, unknown> | null; error?: string }[]): string {
+export function summaryCsv(rows: { name: string; summary: Summary | null; error?: string }[]): string {
   const fields = ['image', ...SUMMARY_CSV_KEYS, 'error'];
   const data = rows.map((r) => {
-    const flat = new Map(r.summary ? flattenSummary(r.summary) : []);
+    const flat = new Map(r.summary ? flattenSummary(r.summary as unknown as Record<string, unknown>) : []);
     return [r.name, ...SUMMARY_CSV_KEYS.map((k) => flat.get(k) ?? ''), r.error ?? ''];
   });
   return Papa.unparse({ fields, data }, { newline: '\r\n' }) + '\r\n';

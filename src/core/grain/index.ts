@@ -4,6 +4,7 @@
  * Results are plain JSON and carry the audit marks (test figures, counted grains, intersections) that the
  * Grain size panel draws on the Bench.
  */
+import type { GrainSizeSummary } from '../summary';
 import { CalibrationError, SettingsError, TessellabError } from '../errors';
 import type { PatternKind, Settings } from '../settings';
 import type { LabelImage, Rect } from '../types';
@@ -335,7 +336,7 @@ const sig = (v: number | null | undefined, d = 5): number | null => (v === null 
  * densities to 5 significant digits, the interval, relative accuracy, ISO 643 index, warnings and cautions.
  * Audit marks are left out (they are in the full result).
  */
-export function grainSizeSummary(r: GrainSizeResult): Record<string, unknown> {
+export function grainSizeSummary(r: GrainSizeResult): GrainSizeSummary {
   const p = r.planimetric;
   const i = r.intercept;
   const a = r.meanArea;

@@ -12,10 +12,11 @@ import { windowCellsRetained } from './window';
 import type { Rect } from '../types';
 import { gammaCdf } from '../stats/dist';
 import {
-  AreaCdfTable, MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats,
+  AreaCdfTable, MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, clarkEvans, lFunction, lRadii, lewisLaw, sideStats,
   type AreaStats,
 } from '../stats/pattern';
 import { PV_AREA_GAMMA_SHAPE } from './constants';
+import { STATISTICS, STATISTIC_KEYS, type PatternCurves, type PatternFigures, type ReferenceCurves, type StatisticKey } from '../stats/registry';
 
 /**
  * How the observed cells relate to the field.
@@ -71,12 +72,9 @@ function cacheKey(o: ReferenceOptions): string {
   return JSON.stringify([o.cells, f.x0, f.y0, f.x1, f.y1, o.replicates, o.seed, o.edgeRule, minArea, o.layout ?? 'seeds', o.density ?? null]);
 }
 
-/** Names of the scalar statistics every replicate records. */
-export const REFERENCE_STATISTICS = [
-  'meanSides', 'mu2', 'p6', 'sidesChiSquare', 'areaVariance', 'areaCv', 'gammaShape', 'ksDistance',
-  'clarkEvansR', 'lMaxDeviation', 'lewisSlope', 'lewisIntercept', 'aboavA', 'lemaitre', 'meanPerimeterScaled', 'interiorCells',
-] as const;
-export type ReferenceStatistic = (typeof REFERENCE_STATISTICS)[number];
+/** Names of the scalar statistics every replicate records: the statistics registry's keys, in its order. */
+export const REFERENCE_STATISTICS = STATISTIC_KEYS;
+export type ReferenceStatistic = StatisticKey;
 
 /** Grid of normalised areas at which ECDF and histogram envelopes are tabulated. */
 export const AREA_GRID_STEP = 0.05;
@@ -251,7 +249,6 @@ export function planReference(opts: ReferenceOptions): ReferencePlan {
 }
 
 const NSTAT = REFERENCE_STATISTICS.length;
-const STAT = Object.fromEntries(REFERENCE_STATISTICS.map((name, i) => [name, i])) as Record<ReferenceStatistic, number>;
 const NS = MAX_SIDES + 1;
 
 /**
@@ -338,42 +335,34 @@ export function drawReplicates(plan: ReferencePlan, r0: number, r1: number, onRe
     const t = layout === 'window' ? windowCellsRetained(engine.run(pts, region, 'retained'), engine, field) : engine.run(pts, field, 'cells');
     const sample = cellSample(t.area, t.edge, t.bbox, field, edgeRule, minArea);
     const m = sample.index.length;
-    values[v + STAT.interiorCells] = m;
     const sp = layout === 'seeds' ? pts : visibleCentroids(t.centroid, t.area, minArea);
     const ce = layout === 'seeds' ? clarkEvans(sp, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }) : clarkEvans(sp, field);
-    values[v + STAT.clarkEvansR] = ce.Rcorrected;
     l.set(lFunction(sp, field, radii), j * nr);
     areaOffsets[j + 1] = areaLength;
-    if (m === 0) {
-      onReplicate?.(j + 1);
-      continue;
+    let fig: PatternFigures = { sample, sides: null, areas: null, clarkEvans: ce, lewis: null, aboav: null, meanPerimeterScaled: Number.NaN };
+    if (m > 0) {
+      const ss = sideStats(t.sides, sample);
+      sides.set(ss.p, j * NS);
+      const as = areaStats(t.area, sample);
+      sortedParts.push(as.sorted);
+      cumulativeParts.push(as.cumulative);
+      areaLength += as.sorted.length;
+      areaOffsets[j + 1] = areaLength;
+      weightSum[j] = sample.weightSum;
+      ecdfOnGrid(as, areaGrid, ecdf, j * G);
+      let per = 0;
+      for (let k = 0; k < m; k++) per += sample.weight[k]! * t.perimeter[sample.index[k]!]!;
+      const lewis = lewisLaw(t.sides, t.area, sample, as.mean);
+      classRow(lewis, lewisW, lewisV, j * NS);
+      const aw = aboavWeaireLaw(t.sides, t.edge, t.neighbourOffsets, t.neighbourIndex, sample);
+      classRow(aw, aboavW, aboavV, j * NS);
+      fig = { sample, sides: ss, areas: as, clarkEvans: ce, lewis, aboav: aw, meanPerimeterScaled: (per / sample.weightSum) * sqrtLambda };
     }
-    const ss = sideStats(t.sides, sample);
-    values[v + STAT.meanSides] = ss.mean;
-    values[v + STAT.mu2] = ss.mu2;
-    values[v + STAT.p6] = ss.p6;
-    values[v + STAT.lemaitre] = ss.lemaitre;
-    sides.set(ss.p, j * NS);
-    const as = areaStats(t.area, sample);
-    values[v + STAT.areaVariance] = as.variance;
-    values[v + STAT.areaCv] = as.cv;
-    values[v + STAT.gammaShape] = as.gammaShape;
-    sortedParts.push(as.sorted);
-    cumulativeParts.push(as.cumulative);
-    areaLength += as.sorted.length;
-    areaOffsets[j + 1] = areaLength;
-    weightSum[j] = sample.weightSum;
-    ecdfOnGrid(as, areaGrid, ecdf, j * G);
-    let per = 0;
-    for (let k = 0; k < m; k++) per += sample.weight[k]! * t.perimeter[sample.index[k]!]!;
-    values[v + STAT.meanPerimeterScaled] = (per / sample.weightSum) * sqrtLambda;
-    const lewis = lewisLaw(t.sides, t.area, sample, as.mean);
-    values[v + STAT.lewisSlope] = lewis.fit.slope;
-    values[v + STAT.lewisIntercept] = lewis.fit.intercept;
-    classRow(lewis, lewisW, lewisV, j * NS);
-    const aw = aboavWeaireLaw(t.sides, t.edge, t.neighbourOffsets, t.neighbourIndex, sample);
-    values[v + STAT.aboavA] = aw.a;
-    classRow(aw, aboavW, aboavV, j * NS);
+    // Second-pass statistics stay NaN here: they need the whole reference (combineReplicates).
+    for (let s = 0; s < NSTAT; s++) {
+      const st = STATISTICS[s]!;
+      if (st.pass === 1) values[v + s] = st.compute(fig);
+    }
     onReplicate?.(j + 1);
   }
   return {
@@ -450,14 +439,14 @@ export function combineReplicates(plan: ReferencePlan, batches: ReplicateBatch[]
 
   const sides = envelope(sidesCurves, R, NS);
   const lEnv = envelope(lCurves, R, nr);
-  // Second pass: distances of each replicate to the reference's own mean curves.
+  // Second pass: distances of each replicate's curves to the reference's own mean curves.
+  const meanCurves: ReferenceCurves = { sidesMean: sides.mean, areaCdf: (y) => pooled.at(y), lMean: lEnv.mean };
   for (let r = 0; r < R; r++) {
-    const as = areaSamples[r];
-    if (!as) continue;
-    values.ksDistance[r] = ksDistance(as, (y) => pooled.at(y));
-    values.sidesChiSquare[r] = sidesChiSquare(sidesCurves.subarray(r * NS, (r + 1) * NS), values.interiorCells[r]!, sides.mean);
+    const curves: PatternCurves = {
+      sidesP: sidesCurves.subarray(r * NS, (r + 1) * NS), cells: values.interiorCells[r]!, areas: areaSamples[r] ?? null, l: lCurves.subarray(r * nr, (r + 1) * nr),
+    };
+    for (const st of STATISTICS) if (st.pass === 2) values[st.key][r] = st.compute(curves, meanCurves);
   }
-  for (let r = 0; r < R; r++) values.lMaxDeviation[r] = maxDeviation(lCurves.subarray(r * nr, (r + 1) * nr), lEnv.mean);
 
   const mean = {} as Record<ReferenceStatistic, number>;
   const sd = {} as Record<ReferenceStatistic, number>;
@@ -543,39 +532,6 @@ export function ecdfOnGrid(a: Pick<AreaStats, 'sorted' | 'cumulative'>, grid: Fl
   }
 }
 
-/** Side-number bins of the chi-square statistic: ≤4, 5, 6, 7, ≥8. */
-function sideBins(p: ArrayLike<number>): number[] {
-  let low = 0;
-  let high = 0;
-  for (let n = 0; n <= 4; n++) low += p[n]!;
-  for (let n = 8; n <= MAX_SIDES; n++) high += p[n]!;
-  return [low, p[5]!, p[6]!, p[7]!, high];
-}
-
-/**
- * Pearson's X² of an observed side distribution p (fractions of `count` cells) against expected fractions
- * q, over the bins ≤4, 5, 6, 7, ≥8 (4 degrees of freedom when q is known). (Pearson 1900; pub, memory.)
- */
-export function sidesChiSquare(p: ArrayLike<number>, count: number, q: ArrayLike<number>): number {
-  const o = sideBins(p);
-  const e = sideBins(q);
-  let x2 = 0;
-  for (let b = 0; b < 5; b++) {
-    if (e[b]! > 0) x2 += (count * (o[b]! - e[b]!) ** 2) / e[b]!;
-  }
-  return x2;
-}
-
-/** max_k |a[k] − b[k]| over finite entries. */
-export function maxDeviation(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  let d = Number.NaN;
-  for (let k = 0; k < a.length; k++) {
-    const e = Math.abs(a[k]! - b[k]!);
-    if (Number.isFinite(e) && !(e <= d)) d = e;
-  }
-  return d;
-}
-
 function countFinite(a: Float64Array): number {
   let c = 0;
   for (const v of a) if (Number.isFinite(v)) c++;
@@ -635,16 +591,48 @@ export function quantileSorted(c: ArrayLike<number>, q: number): number {
 const round = (v: number, d = 6): number | null => (Number.isFinite(v) ? Number(v.toPrecision(d)) : null);
 const arr = (a: ArrayLike<number>, d = 6): (number | null)[] => Array.from(a as ArrayLike<number>, (v) => round(v, d));
 
+/** An envelope in JSON: numbers rounded, null where a value is missing. */
+export interface EnvelopeJson {
+  mean: (number | null)[];
+  lo: (number | null)[];
+  hi: (number | null)[];
+  min: (number | null)[];
+  max: (number | null)[];
+}
+
+/** What summary.json and the `reference` command say of a reference. */
+export interface ReferenceSummary {
+  cells: number;
+  field: Rect;
+  replicates: number;
+  seed: number;
+  edgeRule: EdgeRule;
+  minCellAreaPx: number;
+  layout: ReferenceLayout;
+  densityPerPx2: number | null;
+  seedsPerReplicate: number;
+  interiorCellsTotal: number;
+  /** Mean and sd over the replicates of each statistic of the registry (and its values when asked for). */
+  statistics: Record<string, { mean: number | null; sd: number | null; values?: (number | null)[] }>;
+  sides: { n: number[] } & EnvelopeJson;
+  areaEcdf: { y: (number | null)[] } & EnvelopeJson;
+  areaHistogram: { y0: (number | null)[]; binWidth: number } & EnvelopeJson;
+  lFunction: { rPx: (number | null)[] } & EnvelopeJson;
+  lewis: { n: number[]; meanNormalisedArea: (number | null)[] };
+  aboavWeaire: { n: number[]; meanNeighbourSides: (number | null)[] };
+  warnings: string[];
+}
+
 /**
  * A JSON-serialisable summary of a reference: its options, mean and sd of each statistic, the side
  * distribution and area and L-function envelopes. Replicate values are included only if asked for.
  */
-export function referenceSummary(ref: Reference, opts: { includeValues?: boolean } = {}): Record<string, unknown> {
-  const stats: Record<string, unknown> = {};
+export function referenceSummary(ref: Reference, opts: { includeValues?: boolean } = {}): ReferenceSummary {
+  const stats: ReferenceSummary['statistics'] = {};
   for (const name of REFERENCE_STATISTICS) {
     stats[name] = { mean: round(ref.mean[name]), sd: round(ref.sd[name]), ...(opts.includeValues ? { values: arr(ref.values[name]) } : {}) };
   }
-  const env = (e: Envelope) => ({ mean: arr(e.mean), lo: arr(e.lo), hi: arr(e.hi), min: arr(e.min), max: arr(e.max) });
+  const env = (e: Envelope): EnvelopeJson => ({ mean: arr(e.mean), lo: arr(e.lo), hi: arr(e.hi), min: arr(e.min), max: arr(e.max) });
   return {
     cells: ref.options.cells,
     field: ref.options.field,

@@ -6,22 +6,31 @@ import { describeError } from '../errors';
 import type { Settings } from '../settings';
 import type { Tessellation } from '../tessellate';
 import type { LabelImage, Rect } from '../types';
+import { PV_AREA_GAMMA_SHAPE, PV_SIDES_DISTRIBUTION, LEMAITRE_CONSTANT, LEMAITRE_RANGE, type PublishedValue } from '../reference/constants';
 import {
-  PV_ABOAV_A, PV_AREA_CV, PV_AREA_GAMMA_SHAPE, PV_LEWIS_SLOPE, PV_SIDES_DISTRIBUTION, PV_SIDES_VARIANCE, LEMAITRE_CONSTANT, LEMAITRE_RANGE,
-} from '../reference/constants';
-import {
-  AREA_GRID_MAX, AREA_GRID_STEP, ecdfOnGrid, maxDeviation, referenceMonteCarlo, referenceSummary, sidesChiSquare,
-  type Reference, type ReferenceLayout, type ReferenceOptions, type ReferenceStatistic,
+  AREA_GRID_MAX, AREA_GRID_STEP, ecdfOnGrid, referenceMonteCarlo, referenceSummary,
+  type Reference, type ReferenceLayout, type ReferenceOptions, type ReferenceSummary,
 } from '../reference/montecarlo';
-import { chiSquareUpper, normalTwoSided } from './dist';
+import { STATISTICS, type PatternCurves, type PatternFigures, type StatisticKey } from './registry';
+import { chiSquareUpper, gammaPdf, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
 import {
-  MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
+  MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, type CellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
 } from './pattern';
 
-/** The three verdicts (VOCABULARY.md). */
-export type Verdict = 'more regular than random' | 'consistent with random seeding' | 'more irregular than random';
+/** The verdicts (docs/names.md). */
+export type Verdict =
+  | 'more regular than random'
+  | 'consistent with random seeding'
+  | 'more irregular than random'
+  | 'departs from random seeding in opposite directions';
+
+/**
+ * How one statistic reads against random seeding: a direction only where its own p-value is below α;
+ * "departs from random seeding" for a significant statistic without a direction (a distance).
+ */
+export type Reading = 'more regular' | 'more irregular' | 'departs from random seeding' | 'within the random range';
 
 /** Fewest interior cells for the side and area statistics and for the verdict. */
 export const MIN_INTERIOR_CELLS = 10;
@@ -77,19 +86,19 @@ export function referenceOptionsFor(settings: Settings, cells: number, field: Re
   };
 }
 
-/** One row of the tests table. */
+/** One row of the tests table: one statistic of the registry (stats/registry.ts). */
 export interface TestRow {
-  key: string;
+  key: StatisticKey;
   name: string;
   statistic: number | null;
   referenceMean: number | null;
   referenceSd: number | null;
   /** Monte Carlo p-value (two-sided for signed statistics, upper tail for distances). */
   pValue: number | null;
-  /** Which way the observation departs from the reference mean, when the statistic has a direction. */
-  direction: 'regular' | 'irregular' | null;
-  /** The infinite-plane published value, where there is one (for comparison only). */
-  published: number | null;
+  /** The reading at α; null when there is no p-value. */
+  reading: Reading | null;
+  /** The infinite-plane value for random seeding with its source, where there is one (for comparison only). */
+  published: PublishedValue | null;
   /** Why a statistic is missing, if it is. */
   note?: string;
 }
@@ -100,14 +109,17 @@ export interface RandomnessResult {
   /** The verdict with the statistic and p-value behind it, or why there is none. */
   verdictText: string;
   alpha: number;
-  basis: { test: string; combines: string[]; pValue: number | null; strongest: string | null };
+  basis: { test: string; combines: string[]; pValue: number | null; strongest: string | null; regular: string[]; irregular: string[] };
   tests: TestRow[];
-  reference: Record<string, unknown> | null;
+  reference: ReferenceSummary | null;
   cells: number;
   interiorCells: number;
   sides: {
     n: number[];
+    /** Fraction of the cells in the statistics with n sides (weighted by the edge rule). */
     observed: number[];
+    /** Number of cells in the statistics with n sides. */
+    counts: number[];
     reference: (number | null)[];
     referenceLo: (number | null)[];
     referenceHi: (number | null)[];
@@ -119,12 +131,14 @@ export interface RandomnessResult {
     lemaitre: { value: number | null; expected: number; applies: boolean };
   };
   areas: {
+    /** Mean area of the cells in the statistics (px², weighted by the edge rule). */
+    mean: number | null;
     cv: number | null;
     variance: number | null;
     gammaShape: number | null;
     ksDistance: number | null;
     ecdf: { y: number[]; observed: number[]; mean: (number | null)[]; lo: (number | null)[]; hi: (number | null)[] };
-    histogram: { y0: number[]; binWidth: number; observed: number[]; mean: (number | null)[]; lo: (number | null)[]; hi: (number | null)[] };
+    histogram: { y0: number[]; binWidth: number; observed: number[]; mean: (number | null)[]; lo: (number | null)[]; hi: (number | null)[]; published: number[] };
   };
   clarkEvans: { R: number | null; Runcorrected: number | null; se: number | null; z: number | null; pNormal: number | null; points: number; referenceMean: number | null; referenceSd: number | null; pValue: number | null };
   lFunction: { rPx: number[]; observed: (number | null)[]; mean: (number | null)[]; lo: (number | null)[]; hi: (number | null)[]; maxDeviation: number | null; pValue: number | null };
@@ -161,6 +175,24 @@ export function monteCarloP(t: number, values: ArrayLike<number>, tail: 'two' | 
   if (!R) return null;
   if (tail === 'upper') return (1 + ge) / (R + 1);
   return Math.min(1, (2 * Math.min(1 + ge, 1 + le)) / (R + 1));
+}
+
+/** Number of the sample's cells with n sides, n = 0..MAX_SIDES (the last bin holds MAX_SIDES or more). */
+function sideCounts(sides: Int32Array, s: CellSample): number[] {
+  const c = new Array<number>(MAX_SIDES + 1).fill(0);
+  for (let k = 0; k < s.index.length; k++) c[Math.min(MAX_SIDES, sides[s.index[k]!]!)]!++;
+  return c;
+}
+
+/**
+ * The reading of one statistic at level α: its direction (by the side of the reference mean it lies on)
+ * only when its p-value is below α; "within the random range" otherwise; null without a p-value.
+ */
+export function readingOf(regular: 'low' | 'high' | null, value: number, referenceMean: number, p: number | null, alpha: number): Reading | null {
+  if (p === null || !Number.isFinite(value)) return null;
+  if (!(p < alpha)) return 'within the random range';
+  if (regular === null || !Number.isFinite(referenceMean)) return 'departs from random seeding';
+  return (value < referenceMean) === (regular === 'low') ? 'more regular' : 'more irregular';
 }
 
 /**
@@ -213,13 +245,6 @@ export function combinedMaxZ(observed: number[], replicates: ArrayLike<number>[]
   for (let s = 1; s < S; s++) if (zObs[s]! > zObs[strongest]!) strongest = s;
   return { p: count / N, strongest, pEach };
 }
-
-/** The statistics the verdict combines, the words for them, and which sign means "regular". */
-const VERDICT_STATISTICS: { key: ReferenceStatistic; label: string; regularIfBelow: boolean }[] = [
-  { key: 'mu2', label: 'side-number variance μ₂', regularIfBelow: true },
-  { key: 'areaCv', label: 'area coefficient of variation', regularIfBelow: true },
-  { key: 'clarkEvansR', label: 'Clark–Evans R', regularIfBelow: false },
-];
 
 const fmt = (v: number): string => (Math.abs(v) >= 100 ? v.toFixed(0) : Math.abs(v) >= 1 ? v.toFixed(3) : v.toPrecision(3));
 const fmtP = (p: number): string => (p < 0.001 ? p.toExponential(1) : p.toFixed(3));
@@ -290,69 +315,75 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const aw = m > 0 ? aboavWeaireLaw(sides, edge, graph.offsets, graph.index, sample) : null;
   if (enough && lewis && !Number.isFinite(lewis.fit.slope)) warnings.push(`Lewis's law needs at least 2 side classes with ${3} or more cells.`);
 
-  const obs: Record<string, number> = {
-    mu2: enough && ss ? ss.mu2 : Number.NaN,
-    p6: enough && ss ? ss.p6 : Number.NaN,
-    meanSides: enough && ss ? ss.mean : Number.NaN,
-    areaCv: enough && as ? as.cv : Number.NaN,
-    gammaShape: enough && as ? as.gammaShape : Number.NaN,
-    clarkEvansR: ce.Rcorrected,
-    lewisSlope: enough && lewis ? lewis.fit.slope : Number.NaN,
-    aboavA: enough && aw ? aw.a : Number.NaN,
-    sidesChiSquare: enough && ss && ref ? sidesChiSquare(ss.p, m, ref.sides.mean) : Number.NaN,
-    ksDistance: enough && as && ref ? ksDistance(as, (y) => ref!.areaCdf.at(y)) : Number.NaN,
-    lMaxDeviation: ref ? maxDeviation(L, ref.lFunction.mean) : Number.NaN,
+  const figures: PatternFigures = {
+    sample, sides: enough ? ss : null, areas: enough ? as : null, clarkEvans: ce, lewis: enough ? lewis : null, aboav: enough ? aw : null, meanPerimeterScaled: Number.NaN,
   };
+  const curves: PatternCurves = { sidesP: ss ? ss.p : [], cells: m, areas: enough ? as : null, l: L };
+  const obs = {} as Record<StatisticKey, number>;
+  for (const st of STATISTICS) {
+    if (st.pass === 1) obs[st.key] = st.compute(figures);
+    else obs[st.key] = ref && (enough || !st.needsCells) ? st.compute(curves, { sidesMean: ref.sides.mean, areaCdf: (y) => ref!.areaCdf.at(y), lMean: ref.lFunction.mean }) : Number.NaN;
+  }
 
-  const row = (key: ReferenceStatistic, name: string, tail: 'two' | 'upper', published: number | null, regularIfBelow: boolean | null, note?: string): TestRow => {
-    const v = obs[key]!;
-    const mean = ref ? ref.mean[key] : Number.NaN;
-    const direction = regularIfBelow === null || !Number.isFinite(v) || !Number.isFinite(mean) ? null : (v < mean) === regularIfBelow ? 'regular' : 'irregular';
-    return {
-      key, name, statistic: num(v), referenceMean: num(mean), referenceSd: num(ref ? ref.sd[key] : Number.NaN),
-      pValue: ref ? monteCarloP(v, ref.values[key], tail) : null, direction, published,
-      ...(note ? { note } : !Number.isFinite(v) ? { note: 'not computed (see warnings)' } : {}),
-    };
-  };
-  const tests: TestRow[] = [
-    row('mu2', 'side-number variance μ₂', 'two', PV_SIDES_VARIANCE.value, true),
-    row('p6', 'hexagon fraction p(6)', 'two', PV_SIDES_DISTRIBUTION[6]!.value, false),
-    row('meanSides', 'mean side number', 'two', 6, null),
-    row('sidesChiSquare', 'side distribution X² (bins ≤4, 5, 6, 7, ≥8)', 'upper', null, null),
-    row('areaCv', 'area coefficient of variation', 'two', PV_AREA_CV.value, true),
-    row('gammaShape', 'gamma shape of normalised areas', 'two', PV_AREA_GAMMA_SHAPE.value, false),
-    row('ksDistance', 'Kolmogorov–Smirnov distance of normalised areas', 'upper', null, null),
-    row('clarkEvansR', 'Clark–Evans R (edge-corrected)', 'two', layout === 'seeds' ? 1 : null, false),
-    row('lMaxDeviation', 'L-function maximum deviation (px)', 'upper', null, null),
-    row('lewisSlope', "Lewis's law slope", 'two', PV_LEWIS_SLOPE.value, null),
-    row('aboavA', 'Aboav–Weaire a', 'two', PV_ABOAV_A.value, null),
-  ];
+  const tests: TestRow[] = [];
+  const pOf = {} as Record<StatisticKey, number | null>;
+  for (const st of STATISTICS) {
+    const v = obs[st.key];
+    const p = ref ? monteCarloP(v, ref.values[st.key], st.tail) : null;
+    pOf[st.key] = p;
+    if (!st.table) continue;
+    const mean = ref ? ref.mean[st.key] : Number.NaN;
+    const applies = !('publishedLayout' in st) || st.publishedLayout === layout;
+    tests.push({
+      key: st.key, name: st.label, statistic: num(v), referenceMean: num(mean), referenceSd: num(ref ? ref.sd[st.key] : Number.NaN),
+      pValue: p, reading: readingOf(st.regular, v, mean, p, alpha), published: applies ? st.published : null,
+      ...(!Number.isFinite(v) ? { note: 'not computed (see warnings)' } : {}),
+    });
+  }
 
   // The verdict.
   let verdict: Verdict | null = null;
   let verdictText: string;
   let basisP: number | null = null;
   let strongest: string | null = null;
-  const used = VERDICT_STATISTICS.filter((s) => Number.isFinite(obs[s.key]!));
+  const regularOnes: string[] = [];
+  const irregularOnes: string[] = [];
+  const used = STATISTICS.filter((s) => s.verdict && Number.isFinite(obs[s.key]));
   if (!ref) {
     verdictText = 'No verdict: the random-seeding reference is missing (see warnings).';
   } else if (!enough) {
     verdictText = `No verdict: it needs at least ${MIN_INTERIOR_CELLS} interior cells; this field has ${m}.`;
   } else if (!used.length) {
-    verdictText = 'No verdict: none of μ₂, the area CV and Clark–Evans R could be computed.';
+    verdictText = `No verdict: none of ${STATISTICS.filter((s) => s.verdict).map((s) => s.label).join(', ')} could be computed.`;
   } else {
-    const c = combinedMaxZ(used.map((s) => obs[s.key]!), used.map((s) => ref!.values[s.key]));
+    const c = combinedMaxZ(used.map((s) => obs[s.key]), used.map((s) => ref!.values[s.key]));
     if (!c) {
       verdictText = 'No verdict: the reference has no complete replicate.';
     } else {
       basisP = c.p;
       const s = used[c.strongest]!;
-      const v = obs[s.key]!;
-      const regular = (v < ref.mean[s.key]) === s.regularIfBelow;
+      const v = obs[s.key];
       strongest = s.label;
-      verdict = c.p < alpha ? (regular ? 'more regular than random' : 'more irregular than random') : 'consistent with random seeding';
-      verdictText = `${verdict} (combined Monte Carlo test of ${used.map((u) => u.label).join(', ')}: p = ${fmtP(c.p)} at α = ${alpha}, ${ref.options.replicates} replicates; `
-        + `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)})`;
+      // Each verdict statistic's own reading: the directions of those significant on their own.
+      used.forEach((u, k) => {
+        const r = readingOf(u.regular, obs[u.key], ref!.mean[u.key], c.pEach[k]!, alpha);
+        if (r === 'more regular') regularOnes.push(u.label);
+        if (r === 'more irregular') irregularOnes.push(u.label);
+      });
+      const strongestRegular = (v < ref.mean[s.key]) === (s.regular === 'low');
+      const head = `combined Monte Carlo test of ${used.map((u) => u.label).join(', ')}: p = ${fmtP(c.p)} at α = ${alpha}, ${ref.options.replicates} replicates`;
+      const detail = `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)}`;
+      if (!(c.p < alpha)) {
+        verdict = 'consistent with random seeding';
+        verdictText = `${verdict} (${head}; ${detail})`;
+      } else if (regularOnes.length && irregularOnes.length) {
+        verdict = 'departs from random seeding in opposite directions';
+        verdictText = `${verdict}: more regular by ${regularOnes.join(', ')}; more irregular by ${irregularOnes.join(', ')} (${head})`;
+      } else {
+        const regular = regularOnes.length ? true : irregularOnes.length ? false : strongestRegular;
+        verdict = regular ? 'more regular than random' : 'more irregular than random';
+        verdictText = `${verdict} (${head}; ${detail})`;
+      }
     }
   }
 
@@ -375,20 +406,23 @@ export function randomness(input: RandomnessInput): RandomnessResult {
     const vl = input.likeness ?? voronoiLikeness(input.labels, t, edge);
     likeness = { medianOverlap: num(vl.medianOverlap), overallOverlap: num(vl.overallOverlap), stepPx: vl.stepPx };
   }
-  const chi = obs.sidesChiSquare!;
+  const chi = obs.sidesChiSquare;
 
   return {
     verdict,
     verdictText,
     alpha,
-    basis: { test: 'combined Monte Carlo test (largest standardised departure)', combines: used.map((u) => u.label), pValue: basisP, strongest },
+    basis: {
+      test: 'combined Monte Carlo test (largest standardised departure)', combines: used.map((u) => u.label), pValue: basisP, strongest, regular: regularOnes, irregular: irregularOnes,
+    },
     tests,
-    reference: ref ? { R: ref.options.replicates, seed: ref.options.seed, ...referenceSummary(ref) } : null,
+    reference: ref ? referenceSummary(ref) : null,
     cells: n,
     interiorCells: m,
     sides: {
       n: nAxis,
       observed: ss ? Array.from(ss.p) : new Array(MAX_SIDES + 1).fill(0),
+      counts: sideCounts(sides, sample),
       reference: ref ? list(ref.sides.mean) : none(MAX_SIDES + 1),
       referenceLo: ref ? list(ref.sides.lo) : none(MAX_SIDES + 1),
       referenceHi: ref ? list(ref.sides.hi) : none(MAX_SIDES + 1),
@@ -396,10 +430,11 @@ export function randomness(input: RandomnessInput): RandomnessResult {
       mean: num(ss?.mean),
       mu2: num(ss?.mu2),
       p6: num(ss?.p6),
-      chiSquare: { statistic: num(chi), dof: 4, pAsymptotic: num(chiSquareUpper(chi, 4)), pValue: tests.find((r) => r.key === 'sidesChiSquare')!.pValue },
+      chiSquare: { statistic: num(chi), dof: 4, pAsymptotic: num(chiSquareUpper(chi, 4)), pValue: pOf.sidesChiSquare },
       lemaitre: { value: num(ss?.lemaitre), expected: LEMAITRE_CONSTANT.value, applies: !!ss && ss.p6 > LEMAITRE_RANGE[0] && ss.p6 < LEMAITRE_RANGE[1] },
     },
     areas: {
+      mean: num(as?.mean),
       cv: num(as?.cv),
       variance: num(as?.variance),
       gammaShape: num(as?.gammaShape),
@@ -408,16 +443,18 @@ export function randomness(input: RandomnessInput): RandomnessResult {
       histogram: {
         y0: Array.from(grid.subarray(0, grid.length - 1)), binWidth: AREA_GRID_STEP, observed: hist,
         mean: ref ? list(ref.areaHistogram.mean) : none(hist.length), lo: ref ? list(ref.areaHistogram.lo) : none(hist.length), hi: ref ? list(ref.areaHistogram.hi) : none(hist.length),
+        // The published law of normalised Poisson–Voronoi areas, gamma with shape = rate = 7/2, at the bin centres.
+        published: Array.from(grid.subarray(0, grid.length - 1), (y0) => gammaPdf(y0 + AREA_GRID_STEP / 2, PV_AREA_GAMMA_SHAPE.value, PV_AREA_GAMMA_SHAPE.value)),
       },
     },
     clarkEvans: {
       R: num(ce.Rcorrected), Runcorrected: num(ce.R), se: num(ce.se), z: num(ce.z), pNormal: layout === 'seeds' ? num(normalTwoSided(ce.z)) : null, points: ce.n,
-      referenceMean: num(ref?.mean.clarkEvansR), referenceSd: num(ref?.sd.clarkEvansR), pValue: tests.find((r) => r.key === 'clarkEvansR')!.pValue,
+      referenceMean: num(ref?.mean.clarkEvansR), referenceSd: num(ref?.sd.clarkEvansR), pValue: pOf.clarkEvansR,
     },
     lFunction: {
       rPx: Array.from(radii), observed: list(L),
       mean: ref ? list(ref.lFunction.mean) : none(radii.length), lo: ref ? list(ref.lFunction.lo) : none(radii.length), hi: ref ? list(ref.lFunction.hi) : none(radii.length),
-      maxDeviation: num(obs.lMaxDeviation), pValue: tests.find((r) => r.key === 'lMaxDeviation')!.pValue,
+      maxDeviation: num(obs.lMaxDeviation), pValue: pOf.lMaxDeviation,
     },
     lewis: {
       n: lewis?.n ?? [], observed: lewis?.value ?? [], count: lewis?.count ?? [], fit: fitJson(lewis?.fit ?? { slope: NaN, intercept: NaN, r2: NaN }),

@@ -5,7 +5,7 @@
  */
 import { Delaunay } from 'd3-delaunay';
 import { SettingsError } from '../errors';
-import { mulberry32, normal, subSeed } from '../random';
+import { generatorSeed, mulberry32, normal } from '../random';
 import type { GreyImage, LabelImage } from '../types';
 import { windowDensity } from '../reference/montecarlo';
 import { delaunayNeighbours } from '../tessellate/neighbours';
@@ -147,7 +147,7 @@ export function synthesize(options: SynthOptions): SynthResult {
   const { width: w, height: h } = o;
   const seeds = o.window ? windowSeeds(o) : seedPoints(o.cells, w, h, o.order, o.seed);
   const n = seeds.length / 2;
-  const rng = mulberry32(subSeed(o.seed, 1));
+  const rng = mulberry32(generatorSeed(o.seed, 1));
   const d = new Delaunay(seeds);
   const { offsets: off, index: idx } = delaunayNeighbours(d, n);
   const truth = new Int32Array(w * h);
