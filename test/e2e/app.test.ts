@@ -360,7 +360,7 @@ describe('Tessellab web app', () => {
     await expect.poll(() => page.getByTestId('grain-g').textContent(), { timeout: 30_000 }).toMatch(/G = \d+\.\d/);
     const text = (await page.getByTestId('grain-g').textContent()) as string;
     const G = Number(/G = (-?\d+\.\d)/.exec(text)?.[1]);
-    // ASTM E112 planimetric: G = 3.321928 log10 N_A − 2.954 (REFERENCE.md, derived). 700 grains in
+    // ASTM E112 planimetric: G = 3.321928 log10 N_A − 2.954 (docs/check-values.md, derived). 700 grains in
     // 1000 x 800 px at 0.5 µm/px = 0.2 mm² gives N_A ≈ 3500 mm⁻², G ≈ 8.8; edge grains and the count rule move it a few tenths.
     expect(G).toBeGreaterThan(8.2);
     expect(G).toBeLessThan(9.4);

@@ -2,7 +2,7 @@
  * End-to-end test of the Kinetics panel in headless Chromium: a short simulated transformation (the core's
  * simulateGrowth, planar site saturation) is added as PNG frames, the panel runs the series, and its n, k,
  * kinetics.csv and kinetics.json are checked against `tessellab kinetics` run in-process on the same files
- * and times. The simulation's own truth (n = 2, k = πλv², REFERENCE.md §4, derived) checks both.
+ * and times. The simulation's own truth (n = 2, k = πλv², docs/check-values.md §4, derived) checks both.
  */
 import { describe, it, expect, beforeAll, afterAll, vi } from 'vitest';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -112,7 +112,7 @@ describe('Kinetics panel', () => {
     expect(Math.abs(shownK - ref.avrami.k)).toBeLessThanOrEqual(5e-5 * Math.abs(ref.avrami.k));
     expect(await page.getByTestId('kinetics-fit-method').textContent()).toMatch(/nonlinear/);
     expect(ref.avrami.method).toBe('nonlinear');
-    // derived (REFERENCE.md §4): site saturation gives n = 2 and k = πλv²; a 256 px field holds ~130 nuclei, so loose bounds.
+    // derived (docs/check-values.md §4): site saturation gives n = 2 and k = πλv²; a 256 px field holds ~130 nuclei, so loose bounds.
     expect(Math.abs(ref.avrami.n - truth.n)).toBeLessThan(0.25);
     expect(ref.avrami.k / truth.k).toBeGreaterThan(0.5);
     expect(ref.avrami.k / truth.k).toBeLessThan(2);

@@ -1,5 +1,5 @@
 /**
- * Invariants of the pipeline (the geometric checks of DESIGN.md): tiling, rotation, calibration, Voronoi areas.
+ * Invariants of the pipeline (the geometric checks of docs/design.md): tiling, rotation, calibration, Voronoi areas.
  * Sources: a tessellation's cells partition its window, so their areas sum to the window's (derived from
  * the definition of a tessellation); lengths scale with the unit and areas with its square (derived:
  * dimensional analysis); pixel-grid measurements are unchanged by a quarter turn of the grid (derived:

@@ -25,7 +25,7 @@ describe('summary.json keys', () => {
     }
     const truth = JSON.parse(readFileSync('sample-images/grains-calibrated.truth.json', 'utf8'));
     expect(get(s, 'cells.count')).toBe(truth.cells);
-    // Mean cell area over interior cells ≈ field area / cells (one cell per seed, REFERENCE.md §1, derived);
+    // Mean cell area over interior cells ≈ field area / cells (one cell per seed, docs/check-values.md §1, derived);
     // interior cells are slightly larger on average than all cells (edge cells are cut), so allow 10 %.
     const expected = (1000 * 800 * 0.25) / truth.cells;
     expect(Math.abs((get(s, 'area.mean') as number) / expected - 1)).toBeLessThan(0.1);

@@ -41,7 +41,7 @@ function quantile(sorted: number[], q: number): number {
  * Interprets the fitted exponent for planar growth (n ≈ 2: nuclei all present from the start, site
  * saturation; n ≈ 3: a constant nucleation rate; between: a rate that falls with time) and checks k against
  * k = πλv² (site saturation) and k = πIv²/3 (constant rate) with λ, I and v measured on the domains
- * (derived from the JMAK law: Avrami 1939, 1940; REFERENCE.md §4).
+ * (derived from the JMAK law: Avrami 1939, 1940; docs/check-values.md §4).
  * λ = domains seen by the last early frame (f ≤ 0.1) per field area; I = new domains per untransformed
  * area and time over the early frames, Σ ΔN / Σ A·(1 − f̄)·Δt; v = median over isolated domains of the slope
  * of r = √(area/π) against t.

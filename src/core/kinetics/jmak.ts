@@ -26,7 +26,7 @@ export function jmak(t: number, n: number, k: number, t0 = 0): number {
 
 /**
  * Half-time of the JMAK law, the time from t0 at which f = ½: t½ = (ln 2 / k)^{1/n}
- * (derived from the law; REFERENCE.md section 4). Add t0 for the clock time.
+ * (derived from the law; docs/check-values.md section 4). Add t0 for the clock time.
  *
  * @param n Avrami exponent
  * @param k rate constant (time⁻ⁿ)

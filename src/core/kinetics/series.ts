@@ -365,7 +365,7 @@ export async function analyzeSeries(
  * The final frame of a series as a tessellation: the domain label image (domains grown from their first
  * appearance, so walls lie where neighbouring domains met), the nucleus estimates, and a walls image of the
  * mosaic that the walls analysis can read. For nuclei all present from the start and equal speeds this
- * mosaic is the Voronoi tessellation of the nuclei (REFERENCE.md §4); with nucleation over time it is the
+ * mosaic is the Voronoi tessellation of the nuclei (docs/check-values.md §4); with nucleation over time it is the
  * Johnson–Mehl tessellation (Johnson & Mehl 1939).
  */
 export async function finalMosaic(

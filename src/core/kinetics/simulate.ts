@@ -64,7 +64,7 @@ export interface GrowthTruth {
  * Site saturation: N = round(λ·W·H) nuclei placed uniformly, so λ is exact. Constant rate: N = round(I·W·H·T)
  * nuclei up to the last frame time T with stratified appearance times ((j + u)/N)·T, so the number that
  * has appeared by any t is I·W·H·t to within one nucleus.
- * Expected: n = 2, k = πλv² (site saturation); n = 3, k = πIv²/3 (constant rate) (derived; REFERENCE.md §4).
+ * Expected: n = 2, k = πλv² (site saturation); n = 3, k = πIv²/3 (constant rate) (derived; docs/check-values.md §4).
  *
  * @returns 8-bit frames (bright domains on a dark matrix with Gaussian noise) and the truth behind them
  */

@@ -7,6 +7,8 @@
  * [1] Hu, M.-K. (1962) Visual pattern recognition by moment invariants. IRE Trans. Inf. Theory 8:179.
  * [2] Lorensen, W. & Cline, H. (1987) Marching cubes. SIGGRAPH '87 (the 2-D case: marching squares).
  * [3] Russ, J. C. (2011) The Image Processing Handbook, 6th ed., ch. 11 (shape descriptors; trade).
+ * [4] Koplowitz, J. & Bruckstein, A. M. (1989) Design of perimeter estimators for digitized planar shapes.
+ *     IEEE Trans. PAMI 11:611 (pub, memory): one factor on the segment lengths, fitted over orientations.
  */
 import type { PatternKind } from '../settings';
 import type { CellSums } from './kernel';
@@ -114,8 +116,8 @@ export const MEASUREMENTS: Measurement[] = [
   {
     name: 'perimeter',
     unit: 'length',
-    doc: 'Length of the cell outline traced at sub-pixel precision through the midpoints between inside and outside pixel centres (marching squares) [2].',
-    formula: 'P = Σ over 2x2 windows of the marching-squares segment length (1 for an edge, √2/2 for a corner)',
+    doc: 'Length of the cell outline: the marching-squares contour through the midpoints between inside and outside pixel centres [2], times one factor, 0.947544, that makes it unbiased on average over boundary orientations (the plain contour is up to 8 % long) [4].',
+    formula: 'P = 0.947544 × the plain marching-squares length (Σ over 2x2 windows: 1 across the window, √2/2 across a corner); 0.947544 = 4√2/(π + 2√2), the least-squares factor over boundary angles 0°–45° (derived): mean 0.99946 of the true length, −5.2 % to +2.6 % at any one angle; along straight stretches 0.99946 × the four-direction Crofton perimeter',
     patterns: SEG,
     compute: (ctx) => map(ctx, (c) => ctx.sums!.perimeter[c]! * lengthScale(ctx)),
   },

@@ -11,7 +11,7 @@ import {
   precision,
 } from '../../../src/core/grain/index';
 
-// Table rows of REFERENCE.md section 2 (derived from the ASTM E112 formulas; they match the standard's table as recalled).
+// Table rows of docs/check-values.md section 2 (derived from the ASTM E112 formulas; they match the standard's table as recalled).
 const rows = [
   { G: 0, NA: 7.75, A: 0.1291, l: 0.32 },
   { G: 1, NA: 15.5, A: 0.0645, l: 0.2263 },
@@ -23,7 +23,7 @@ const rows = [
 
 describe('grain size numbers from the counted quantities', () => {
   for (const r of rows) {
-    it(`G = ${r.G} from N_A, ℓ̄ and Ā (REFERENCE.md §2 table rows; derived)`, () => {
+    it(`G = ${r.G} from N_A, ℓ̄ and Ā (docs/check-values.md §2 table rows; derived)`, () => {
       expect(Math.abs(gFromNA(r.NA) - r.G)).toBeLessThan(0.01);
       expect(Math.abs(gFromMeanIntercept(r.l) - r.G)).toBeLessThan(0.01);
       expect(Math.abs(gFromMeanArea(r.A) - r.G)).toBeLessThan(0.01);
@@ -38,13 +38,13 @@ describe('grain size numbers from the counted quantities', () => {
     }
   });
 
-  it('worked example: 25 grains per in² at 75× gives G = 4.81 (REFERENCE.md §2; pub, read in text)', () => {
+  it('worked example: 25 grains per in² at 75× gives G = 4.81 (docs/check-values.md §2; pub, read in text)', () => {
     // At 75× one in² covers 645.16/75² mm² of the specimen.
     const NA = 25 / (645.16 / 75 ** 2);
     expect(Math.abs(gFromNA(NA) - 4.81)).toBeLessThan(0.01);
   });
 
-  it('worked example: 350 mm line at 160× crossing 58 boundaries gives ℓ̄ = 0.0377 mm, G = 6.17 (REFERENCE.md §2; pub, read in text)', () => {
+  it('worked example: 350 mm line at 160× crossing 58 boundaries gives ℓ̄ = 0.0377 mm, G = 6.17 (docs/check-values.md §2; pub, read in text)', () => {
     const l = 350 / 160 / 58;
     expect(Math.abs(l - 0.0377)).toBeLessThan(0.00005);
     expect(Math.abs(gFromMeanIntercept(l) - 6.17)).toBeLessThan(0.01);

@@ -43,7 +43,7 @@ describe('tessellab kinetics', () => {
     expect(json.fit.method).toBe('nonlinear');
     expect(json.frames).toHaveLength(times.length);
     expect(json.settings.kinetics.fitMin).toBe(0.02);
-    // derived: site saturation, n = 2 (REFERENCE.md §4); a small field, so a loose tolerance
+    // derived: site saturation, n = 2 (docs/check-values.md §4); a small field, so a loose tolerance
     expect(Math.abs(json.avrami.n - 2)).toBeLessThan(0.2);
     const settings = JSON.parse(await readFile(join(out, 'settings.json'), 'utf8'));
     expect(settings.kinetics.threshold).toBe('otsu');

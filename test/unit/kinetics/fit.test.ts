@@ -7,7 +7,7 @@ const times = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 14];
 
 describe('JMAK law', () => {
   it('half-time is (ln 2 / k)^{1/n} and f(t½) = ½', () => {
-    // derived: REFERENCE.md §4, t½ = (ln 2 / k)^{1/n}
+    // derived: docs/check-values.md §4, t½ = (ln 2 / k)^{1/n}
     for (const [n, k] of [[2, 3.1e-3], [3, 2.1e-5], [1.5, 0.2], [4, 1e-7]] as const) {
       const th = halfTime(n, k);
       expect(th).toBeCloseTo(Math.pow(Math.LN2 / k, 1 / n), 12);
@@ -17,7 +17,7 @@ describe('JMAK law', () => {
   });
 
   it('the K form 1 − exp(−(K·t)ⁿ) with K = k^{1/n} gives the same curve', () => {
-    // derived: REFERENCE.md §4, K = k^{1/n}
+    // derived: docs/check-values.md §4, K = k^{1/n}
     const n = 2.7;
     const k = 4e-4;
     const K = rateK(n, k);
@@ -29,7 +29,7 @@ describe('JMAK law', () => {
 
 describe('Avrami plot fit', () => {
   it('recovers n and k from exact JMAK values', () => {
-    // derived: on exact values the Avrami plot is the straight line ln(−ln(1 − f)) = ln k + n·ln t (REFERENCE.md §4)
+    // derived: on exact values the Avrami plot is the straight line ln(−ln(1 − f)) = ln k + n·ln t (docs/check-values.md §4)
     const f = times.map((t) => jmak(t, 2.5, 0.004));
     const fit = fitAvrami(times, f);
     expect(fit.n).toBeCloseTo(2.5, 9);
@@ -81,7 +81,7 @@ describe('Avrami plot fit', () => {
 
 describe('nonlinear JMAK fit (Levenberg–Marquardt)', () => {
   it('returns n and k of exact JMAK values to 1e-6 from a poor start', () => {
-    // derived: exact values of f = 1 − exp(−k·tⁿ) are fitted with zero residual (REFERENCE.md §4)
+    // derived: exact values of f = 1 − exp(−k·tⁿ) are fitted with zero residual (docs/check-values.md §4)
     for (const [n, k] of [[2, 3.1416e-3], [3, 2.0944e-5], [2.5, 0.004]] as const) {
       const f = times.map((t) => jmak(t * (n === 3 ? 4 : 1), n, k));
       const ts = times.map((t) => t * (n === 3 ? 4 : 1));

@@ -24,12 +24,12 @@ describe('planar growth from nuclei all present at t = 0 (site saturation)', () 
   it('measures the fraction the simulation painted', () => {
     // derived: the frames are the painted discs plus noise far below the threshold, so f must equal the painted fraction
     result.frames.forEach((fr, j) => expect(Math.abs(fr.fraction - truth.renderedFraction[j]!)).toBeLessThan(2e-3));
-    // derived: the painted fraction follows 1 − exp(−πλv²t²) (REFERENCE.md §4) up to the pattern's scatter
+    // derived: the painted fraction follows 1 − exp(−πλv²t²) (docs/check-values.md §4) up to the pattern's scatter
     truth.renderedFraction.forEach((f, j) => expect(Math.abs(f - truth.expectedFraction[j]!)).toBeLessThan(0.02));
   });
 
   it('fits n = 2 ± 0.1 and k within 10 % of πλv²', () => {
-    // derived: REFERENCE.md §4, planar growth with site saturation has n = 2, k = πλv²
+    // derived: docs/check-values.md §4, planar growth with site saturation has n = 2, k = πλv²
     const kTrue = Math.PI * lambda * v * v;
     expect(truth.k).toBeCloseTo(kTrue, 15);
     for (const fit of [result.fit.avramiPlot, result.fit.nonlinear!]) {
@@ -57,7 +57,7 @@ describe('planar growth from nuclei all present at t = 0 (site saturation)', () 
   });
 
   it('gives the final mosaic: one domain per nucleus, nuclei found where they were', () => {
-    // derived: the end state of site saturation is the Voronoi tessellation of the nuclei (REFERENCE.md §4), one
+    // derived: the end state of site saturation is the Voronoi tessellation of the nuclei (docs/check-values.md §4), one
     // cell per nucleus; on the periodic field a domain cut by the border counts once per piece, so a few extra.
     expect(mosaic.complete).toBe(true);
     expect(Math.abs(mosaic.labels.count / truth.nuclei.length - 1)).toBeLessThan(0.08);
@@ -91,7 +91,7 @@ describe('planar growth with a constant nucleation rate', () => {
   });
 
   it('fits n = 3 ± 0.15 and k within 15 % of πIv²/3', () => {
-    // derived: REFERENCE.md §4, planar growth with a constant nucleation rate has n = 3, k = πIv²/3
+    // derived: docs/check-values.md §4, planar growth with a constant nucleation rate has n = 3, k = πIv²/3
     const kTrue = (Math.PI * rate * v * v) / 3;
     for (const fit of [result.fit.avramiPlot, result.fit.nonlinear!]) {
       expect(Math.abs(fit.n - 3)).toBeLessThan(0.15);

@@ -55,7 +55,7 @@ describe('Monte Carlo reference reproduces the published Poisson–Voronoi value
 });
 
 describe('Monte Carlo reference: edge rule and determinism', () => {
-  it('excluding edge cells without weights biases against large cells, hence against many-sided ones (REFERENCE.md section 3, Miles 1974, pub, memory; Lewis\'s law links size and sides)', () => {
+  it('excluding edge cells without weights biases against large cells, hence against many-sided ones (docs/check-values.md section 3, Miles 1974, pub, memory; Lewis\'s law links size and sides)', () => {
     // Same seeds, two rules: unweighted interior cells have fewer sides on average; weighted ones about 6.
     const o = { cells: 300, field: { x0: 0, y0: 0, x1: 300, y1: 300 }, replicates: 60, seed: 3, layout: 'window' as const };
     const a = referenceMonteCarlo({ ...o, edgeRule: 'exclude' });

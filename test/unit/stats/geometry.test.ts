@@ -101,7 +101,7 @@ describe('small statistics helpers', () => {
     const a = { mean: 1, variance: 0, cv: 0, gammaShape: 0, sorted: Float64Array.from([0.1, 0.4, 0.8]), cumulative: Float64Array.from([1 / 3, 2 / 3, 1]) };
     expect(ksDistance(a, (y) => y)).toBeCloseTo(0.8 / 3, 12);
   });
-  it('weighted least squares on exact points and the Miles–Lantuéjoul weights (REFERENCE.md section 3)', () => {
+  it('weighted least squares on exact points and the Miles–Lantuéjoul weights (docs/check-values.md section 3)', () => {
     const f = weightedLine([1, 2, 3], [3, 5, 7], [1, 1, 1]);
     expect(f.slope).toBeCloseTo(2, 12);
     expect(f.intercept).toBeCloseTo(1, 12);

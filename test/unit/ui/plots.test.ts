@@ -6,7 +6,7 @@ import { seedPoints } from '../../../src/core/synth/seeds';
 describe('random-seeding reference curves', () => {
   it('the gamma area law (shape = rate = 7/2) is a density with mean 1 and variance 2/7', () => {
     // Ferenc & Néda 2007 (pub, read in text): gamma with k = 7/2 has mean 1 and variance 1/k = 0.2857
-    // (derived), close to Gilbert's 0.2802 (REFERENCE.md, pub, memory).
+    // (derived), close to Gilbert's 0.2802 (docs/check-values.md, pub, memory).
     let m0 = 0, m1 = 0, m2 = 0;
     const h = 1e-4;
     for (let y = h / 2; y < 12; y += h) { const f = pvAreaDensity(y); m0 += f * h; m1 += y * f * h; m2 += y * y * f * h; }
@@ -28,7 +28,7 @@ describe('plot data of a random point pattern', () => {
     const s = sideDistribution(a);
     expect(s.observed.y.reduce((x, y) => x + y, 0)).toBeCloseTo(1, 9);
     const p6 = s.observed.y[s.observed.x.indexOf(6)];
-    // p(6) = 0.2947 (Hilhorst 2007, REFERENCE.md, pub, memory); ~2600 interior cells: sd ≈ 0.009.
+    // p(6) = 0.2947 (Hilhorst 2007, docs/check-values.md, pub, memory); ~2600 interior cells: sd ≈ 0.009.
     expect(Math.abs(p6 - 0.2947)).toBeLessThan(0.04);
     // Mean sides 6 (Euler, derived) minus a border bias; μ₂ = 1.781 (Brakke 1987, pub, memory).
     expect(Math.abs(s.mean - 6)).toBeLessThan(0.1);
