@@ -69,7 +69,7 @@ describe('randomness result', () => {
 
   it('is plain JSON with the summary keys and a tests table', () => {
     const j = JSON.parse(JSON.stringify(r));
-    expect(j.reference.R).toBe(39);
+    expect(j.reference.replicates).toBe(39);
     expect(j.reference.seed).toBe(3);
     expect(j.sides.reference).toHaveLength(21);
     expect(typeof j.clarkEvans.R).toBe('number');
@@ -113,7 +113,7 @@ describe('randomness: bad input', () => {
     expect(r.verdict).toBeNull();
     expect(r.reference).toBeNull();
     expect(r.sides.mu2).not.toBeNull();
-    expect(r.tests.find((x) => x.key === 'mu2')!.published).toBeCloseTo(1.781, 3);
+    expect(r.tests.find((x) => x.key === 'mu2')!.published!.value).toBeCloseTo(1.781, 3);
     expect(r.warnings.join(' ')).toMatch(/replicates is 0/);
   });
   it('too few replicates for the significance level: warned, not hidden', () => {
