@@ -110,8 +110,7 @@ async function sendResult(id: string, a: Analysis, t0: number): Promise<Analysis
   // but the label image, whose run-length form (overlay.runs) is a small fraction of it to make.
   const { labels: _kept, ...rest } = a;
   const copy: PageAnalysis = structuredClone(rest);
-  const { randomnessData } = await import('../src/ui/plots');
-  const result: AnalysisResult = { id, analysis: copy, overlay, elapsedMs: performance.now() - t0, plotData: randomnessData(a) };
+  const result: AnalysisResult = { id, analysis: copy, overlay, elapsedMs: performance.now() - t0 };
   const transfers: Transferable[] = collectTransfers(copy);
   transfers.push(overlay.cellBoxes.buffer as ArrayBuffer);
   if (overlay.runs) transfers.push(...collectTransfers(overlay.runs));

@@ -61,8 +61,6 @@ export interface AnalysisResult {
   overlay: Overlay;
   /** Milliseconds spent in the worker. */
   elapsedMs: number;
-  /** The Randomness panel's plot series, computed in the worker so the page does not. */
-  plotData: import('../src/ui/plots').RandomnessData;
 }
 
 /** A quick look at the segmentation on a downscaled copy, while a slider moves. */

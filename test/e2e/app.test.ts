@@ -336,6 +336,17 @@ describe('Tessellab web app', () => {
     // Plots are drawn as they come into view.
     await page.getByTestId('plot-pair').scrollIntoViewIfNeeded();
     await page.waitForSelector('[data-testid=plot-pair] .main-svg', { timeout: 30_000 });
+    // The panel plots L(r) − r as the core returns it (scaled to µm once), not with r subtracted again.
+    const pair = await page.evaluate((n) => {
+      const el = document.querySelector('[data-testid=plot-pair]') as unknown as { data: { name: string; x: number[]; y: (number | null)[] }[] };
+      const plotted = el.data.find((t) => t.name === 'observed (centroids)')!;
+      const entry = (globalThis as unknown as Win).__tessellab.entries.find((x) => x.name === n)!;
+      const a = (entry.result as { analysis: { settings: { umPerPx: number | null }; randomness: { lFunction: { rPx: number[]; observed: (number | null)[] } } } }).analysis;
+      return { plotted: plotted.y, x: plotted.x, core: a.randomness.lFunction.observed, r: a.randomness.lFunction.rPx, um: a.settings.umPerPx ?? 1 };
+    }, fixture.name);
+    expect(pair.plotted.length).toBe(pair.core.length);
+    pair.plotted.forEach((v, i) => expect(v).toBeCloseTo((pair.core[i] ?? Number.NaN) * pair.um, 9));
+    expect(pair.x.at(-1)).toBeCloseTo(pair.r.at(-1)! * pair.um, 9);
     await page.getByTestId('verdict').scrollIntoViewIfNeeded();
     // The verdict uses the project's words, with the statistic and p-value behind it.
     await expect.poll(() => page.getByTestId('verdict').textContent()).toMatch(/more regular than random|consistent with random seeding|more irregular than random/);
