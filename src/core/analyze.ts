@@ -281,6 +281,7 @@ async function measureLabels(
       settings,
       neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
       minCellAreaPx: segment?.minCellAreaPx,
+      solidity: columns.solidity ?? null,
     });
     const summary = buildSummary({
       settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts),

@@ -10,6 +10,7 @@
 import type { ResolvedPixelSize } from './image/calibration';
 import type { PatternKind, Settings } from './settings';
 import type { RandomnessResult, TestRow, Verdict } from './stats/randomness';
+import type { Quality } from './stats/quality';
 import type { ReferenceSummary } from './reference/montecarlo';
 import type { EventsDispersion } from './stats/events';
 import type { Rect } from './types';
@@ -81,6 +82,8 @@ export interface Summary {
   /** The analysed rectangle (px) and its area (summary units). */
   field: Rect & { area: number };
   segmentation: SegmentInfo | null;
+  /** The check before the verdict; when ok is false, randomness.verdict is null ("not rated") with the reason. */
+  quality: Quality;
   cells: {
     count: number;
     /** Cells not touching the field border. */
@@ -183,6 +186,7 @@ export function buildSummary(inp: SummaryInput): Summary {
     calibration: { source: inp.calibrationSource },
     field: { ...field, area: fieldArea * a2 },
     segmentation: inp.segment,
+    quality: r.quality,
     cells: { count, interior: nInterior, edge: count - nInterior, inStatistics: r.interiorCells, densityPerArea: count / (fieldArea * a2) },
     area: {
       mean: r.areas.mean === null ? null : r.areas.mean * a2, cv: r.areas.cv, variance: r.areas.variance, gammaShape: r.areas.gammaShape, ksDistance: r.areas.ksDistance,

@@ -78,6 +78,7 @@ describe('summary.json keys', () => {
     expect(s.cells.inStatistics).toBe(s.area.n);
     // Random seeds: the verdict must not call them regular or irregular.
     expect(s.randomness.verdict).toBe('consistent with random seeding');
+    expect(s.quality.ok).toBe(true);
   });
 
   it('uncalibrated: umPerPx is null, units are px, and grain size says why it is missing', async () => {
@@ -91,6 +92,7 @@ describe('summary.json keys', () => {
     expect(String(get(a.summary, 'grainSize.error'))).toMatch(/pixel size/);
     // Hard-core seeds: the verdict is "more regular than random".
     expect(a.summary.randomness.verdict).toBe('more regular than random');
+    expect(a.summary.quality).toMatchObject({ ok: true, warnings: [] });
   });
 
   it('bodies: side statistics come from the Voronoi tessellation', async () => {

@@ -14,6 +14,7 @@ import {
 import { STATISTICS, type PatternCurves, type PatternFigures, type StatisticKey } from './registry';
 import { chiSquareUpper, gammaPdf, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';
+import { assessQuality, type Quality } from './quality';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
 import {
   MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, type CellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
@@ -61,6 +62,10 @@ export interface RandomnessInput {
   neighbours?: { offsets: Int32Array; index: Int32Array };
   /** Minimum cell area (px²) the observation used; default settings.minCellAreaPx when positive and the pattern is not points. */
   minCellAreaPx?: number;
+  /** Per-cell solidity of a segmentation, for the quality check; null or absent for points. */
+  solidity?: ArrayLike<number> | null;
+  /** Notices of earlier stages for the quality block (they do not fail it). */
+  notices?: string[];
 }
 
 /** The minimum cell area (px²) the observation used: the segmentation's, else settings.minCellAreaPx for images, else 0. */
@@ -106,6 +111,8 @@ export interface TestRow {
 
 /** Everything the Randomness panel and summary.json need; plain JSON. */
 export interface RandomnessResult {
+  /** The check before the verdict: when not ok, the verdict is null ("not rated") with the reason. */
+  quality: Quality;
   verdict: Verdict | null;
   /** The verdict with the statistic and p-value behind it, or why there is none. */
   verdictText: string;
@@ -350,7 +357,10 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const regularOnes: string[] = [];
   const irregularOnes: string[] = [];
   const used = STATISTICS.filter((s) => s.verdict && Number.isFinite(obs[s.key]));
-  if (!ref) {
+  const quality = assessQuality(input.solidity ?? null, enough && as ? as.cv : null, input.notices);
+  if (!quality.ok) {
+    verdictText = `Not rated: ${quality.warnings[0]}`;
+  } else if (!ref) {
     verdictText = 'No verdict: the random-seeding reference is missing (see warnings).';
   } else if (!enough) {
     verdictText = `No verdict: it needs at least ${MIN_INTERIOR_CELLS} interior cells; this field has ${m}.`;
@@ -410,6 +420,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const chi = obs.sidesChiSquare;
 
   return {
+    quality,
     verdict,
     verdictText,
     alpha,
