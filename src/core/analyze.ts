@@ -39,6 +39,8 @@ export interface AnalyzeOptions {
    * worker_threads, the app's web workers). Without one it is drawn on this thread; the result is the same.
    */
   referencePool?: ReferencePool | null;
+  /** Where the pixel size came from ('user': typed or set, 'file': the image's tags, 'none'), for the summary. */
+  calibrationSource?: 'user' | 'file' | 'none';
 }
 
 /** Segmentation details kept with an analysis (for the Detect panel and the summary). */

@@ -11,7 +11,7 @@ import { KineticsState } from './kinetics.svelte';
 import { Bridge, CancelledRunError, SupersededError, WorkerCrashedError } from '../bridge';
 import {
   deleteEntry, loadEntries, loadSession, saveEntry, saveSession, type EntryStatus, type Layers, type StoredEntry,
-} from '../db';
+} from '../../storage/db';
 
 /** The largest image the web app opens, in pixels (the command line allows more). */
 export const WEB_MAX_PIXELS = 64_000_000;
