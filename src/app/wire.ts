@@ -29,3 +29,28 @@ export function isWireError(v: unknown): v is WireError {
   const o = v as Record<string, unknown>;
   return typeof o.kind === 'string' && typeof o.message === 'string';
 }
+
+/**
+ * The same API with every method's failure turned into a {@link WireError} (thrown, or the rejection of
+ * the promise it returns), so that the kind survives the trip to the page.
+ */
+export function withWireErrors<T extends object>(api: T): T {
+  const out: Record<string, unknown> = {};
+  for (const [key, fn] of Object.entries(api)) {
+    if (typeof fn !== 'function') {
+      out[key] = fn;
+      continue;
+    }
+    out[key] = (...args: unknown[]): unknown => {
+      let r: unknown;
+      try {
+        r = (fn as (...a: unknown[]) => unknown).apply(api, args);
+      } catch (e) {
+        throw toWireError(e);
+      }
+      if (r instanceof Promise) return r.catch((e: unknown) => { throw toWireError(e); });
+      return r;
+    };
+  }
+  return out as T;
+}
