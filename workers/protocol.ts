@@ -10,11 +10,11 @@ import type { EditOp } from '../src/core/edit/labels';
 /** Progress report from the worker: stage name and fraction done in [0, 1]. */
 export type ProgressFn = (stage: string, fraction: number) => void;
 
-/** An error that crossed the worker boundary as plain data (class instances do not survive cloning). */
-export interface WireError {
-  kind: string;
-  message: string;
-}
+/**
+ * How every failure of a call reaches the page: the core error's kind and its message, as plain data
+ * (class instances do not survive cloning). The bridge re-creates an error of that kind.
+ */
+export type { WireError } from '../src/app/wire';
 
 /** What opening an image gives the page: its size, tags and a display bitmap. */
 export interface OpenResult {
@@ -85,13 +85,15 @@ export type ExportKind = ImageFileKind;
 
 export interface AnalyzeRequest {
   id: string;
+  /**
+   * The entry's own settings: `umPerPx` is the person's (null when none was set); the worker falls back
+   * to the file's pixel size and records which one it used.
+   */
   settings: SettingsInput;
   /** Edits to replay on the fresh labels before measuring (kept when only the scale changed). */
   ops?: EditOp[];
   /** Re-measure the stored labels instead of segmenting again (scale change, edits). */
   reuseLabels?: boolean;
-  /** Where the pixel size came from, recorded in the summary as the command line does. */
-  calibrationSource?: 'user' | 'file' | 'none';
 }
 
 /** A grain size rating of the current result, with its printable report. */
@@ -106,7 +108,7 @@ export interface GrainResult {
 }
 
 /** Where the times of a kinetics series come from: typed, the last number in each file name, or a CSV of file,time. */
-export type KineticsTimes = { kind: 'list'; text: string } | { kind: 'names' } | { kind: 'csv'; text: string };
+export type KineticsTimes = import('../src/app/series').SeriesTimes;
 
 /** A kinetics run: the frames are every page of each listed image, in the order given. */
 export interface KineticsRequest {

@@ -51,6 +51,10 @@ export class EditError extends TessellabError {
 export class SeriesError extends TessellabError {
   constructor(message: string) { super('Series', message); }
 }
+/** What a request needs is not there: an image not opened yet, a result not made yet, a stored copy deleted. */
+export class MissingError extends TessellabError {
+  constructor(message: string) { super('Missing', message); }
+}
 export class CancelledError extends TessellabError {
   constructor(message = 'The analysis was cancelled.') { super('Cancelled', message); }
 }

@@ -8,21 +8,56 @@ import type {
   AnalysisResult, AnalyzeRequest, ExportFile, GrainResult, ExportKind, KineticsFinal, KineticsRequest, KineticsRun, OpenResult, VectorLayerRequest, PreviewResult, ProgressFn, WorkerApi,
 } from '../../workers/protocol';
 import type { SettingsInput } from '../core/settings';
+import { isWireError } from '../app/wire';
+
+/**
+ * A failed worker call, or a request the bridge itself gave up. `kind` says what happened, and the page
+ * reacts to it: a core error's kind from the worker ('Cancelled', 'Csv', 'ImageDecode', ... as in
+ * src/core/errors.ts, or 'Unexpected'), or the bridge's own 'Superseded', 'Cancelled', 'WorkerCrashed',
+ * 'Missing'. The message is one line for a person.
+ */
+export class WorkerError extends Error {
+  readonly kind: string;
+  constructor(kind: string, message: string) {
+    super(message);
+    this.kind = kind;
+    this.name = `${kind}Error`;
+  }
+}
 
 /** Raised for a request that a newer one for the same image replaced; the caller ignores it. */
-export class SupersededError extends Error {
-  constructor() { super('A newer request replaced this one.'); this.name = 'SupersededError'; }
+export class SupersededError extends WorkerError {
+  constructor() { super('Superseded', 'A newer request replaced this one.'); }
 }
-/** Raised for requests cut short by cancel(). */
-export class CancelledRunError extends Error {
-  constructor() { super('The analysis was cancelled.'); this.name = 'CancelledRunError'; }
+/** Raised for requests cut short by cancel() (the same kind as a cancel inside the worker). */
+export class CancelledRunError extends WorkerError {
+  constructor() { super('Cancelled', 'The analysis was cancelled.'); }
 }
 /** Raised for requests that were running when the worker failed. */
-export class WorkerCrashedError extends Error {
+export class WorkerCrashedError extends WorkerError {
   constructor(detail: string) {
-    super(`The analysis worker stopped (${detail}); it has been restarted and your earlier results are kept. Run the analysis again.`);
-    this.name = 'WorkerCrashedError';
+    super('WorkerCrashed', `The analysis worker stopped (${detail}); it has been restarted and your earlier results are kept. Run the analysis again.`);
   }
+}
+
+/**
+ * What a worker call rejected with, as an Error: a wire error becomes a {@link WorkerError} of its kind;
+ * anything else (a message port failure) one of kind 'Unexpected'.
+ */
+export function fromWorker(e: unknown): Error {
+  if (e instanceof WorkerError) return e;
+  if (isWireError(e)) return new WorkerError(e.kind, e.message);
+  return new WorkerError('Unexpected', e instanceof Error ? e.message : String(e));
+}
+
+/** The kind of a failure ('Unexpected' for anything that is not a {@link WorkerError}). */
+export function errorKind(e: unknown): string {
+  return e instanceof WorkerError ? e.kind : 'Unexpected';
+}
+
+/** The one-line message of a failure. */
+export function errorMessage(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
 }
 
 export interface BridgeEvents {
@@ -90,7 +125,7 @@ export class Bridge {
       this.pending.add(p);
       fn(api).then(
         (v) => { if (this.pending.delete(p)) resolve(v); },
-        (e: unknown) => { if (this.pending.delete(p)) reject(e instanceof Error ? e : new Error(String(e))); },
+        (e: unknown) => { if (this.pending.delete(p)) reject(fromWorker(e)); },
       );
     });
   }
@@ -112,7 +147,7 @@ export class Bridge {
   private async ensureOpen(id: string): Promise<void> {
     if (this.openIn.has(id)) return;
     const rec = this.records.get(id);
-    if (!rec) throw new Error('This image was never opened; add it again.');
+    if (!rec) throw new WorkerError('Missing', 'This image was never opened; add it again.');
     const r = await this.call((api) => api.open(id, rec.name, null, rec.maxPixels));
     r.bitmap?.close();
     r.thumb?.close();

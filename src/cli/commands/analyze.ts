@@ -6,12 +6,12 @@
 import type { Summary } from '../../core/summary';
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
-import { analyze, outlinesOf } from '../../core/analyze';
+import { outlinesOf } from '../../core/analyze';
 import { describeError, SettingsError } from '../../core/errors';
 import { imageFiles, settingsJson, summaryCsv } from '../../core/export/index';
-import { decodeImage } from '../../core/image/decode';
-import { resolvePixelSize } from '../../core/image/calibration';
 import { parsePointsCsv } from '../../core/segment/points';
+import { analyseFile } from '../../app/analyse';
+import { openFile } from '../../app/open';
 import { resolveSettings, type SettingsInput } from '../../core/settings';
 import type { Command } from '../main';
 import { parseArgs, parseSize, positiveNumber } from '../args';
@@ -44,8 +44,9 @@ export const command: Command = {
       }
     }
     if (a.options.has('pattern')) input.pattern = a.options.get('pattern') as SettingsInput['pattern'];
-    const userUm = a.options.has('um-per-px') ? positiveNumber(a.options.get('um-per-px')!, 'um-per-px') : (input.umPerPx ?? null);
+    if (a.options.has('um-per-px')) input.umPerPx = positiveNumber(a.options.get('um-per-px')!, 'um-per-px');
     const base = resolveSettings(input);
+    const userUm = base.umPerPx;
     const outDir = a.options.get('out') ?? '.';
     await ensureOutDir(outDir);
     let events: Float64Array | undefined;
@@ -65,20 +66,11 @@ export const command: Command = {
       const say = (stage: string) => process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${stage}\n`);
       try {
         say('reading');
-        let analysis;
-        if (base.pattern === 'points') {
-          const pts = parsePointsCsv(await readText(file), { name });
-          const size = a.options.has('size') ? parseSize(a.options.get('size')!) : boundsOf(pts.points);
-          const settings = { ...base, umPerPx: userUm };
-          analysis = await analyze({ kind: 'points', points: pts.points, width: size[0], height: size[1], name }, settings, { events, referencePool, onProgress: (s, f) => f === 0 && say(s) });
-        } else {
-          const bytes = await readBytes(file);
-          const img = await decodeImage(bytes, { name });
-          if (img.pages.length > 1) process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${img.pages.length} pages; analysing the first (use kinetics for a series)\n`);
-          const px = resolvePixelSize(userUm, img.umPerPx);
-          const settings = { ...base, umPerPx: px.umPerPx };
-          analysis = await analyze({ kind: 'image', image: img.pages[0]!, name }, settings, { events, referencePool, calibrationSource: px.source, onProgress: (s, f) => f === 0 && say(s) });
-        }
+        const bytes = await readBytes(file);
+        const size = base.pattern === 'points' && a.options.has('size') ? parseSize(a.options.get('size')!) : null;
+        const opened = await openFile(name, bytes, { as: base.pattern === 'points' ? 'points' : 'image', size });
+        if (opened.kind === 'image' && opened.pages.length > 1) process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${opened.pages.length} pages; analysing the first (use kinetics for a series)\n`);
+        const analysis = await analyseFile(opened, base, { events, referencePool, onProgress: (s, f) => f === 0 && say(s) });
         lastSettings = analysis.settings;
         say('writing');
         const outlines = await outlinesOf(analysis);
@@ -114,12 +106,4 @@ async function readBytes(file: string): Promise<Uint8Array> {
 
 async function readText(file: string): Promise<string> {
   return new TextDecoder().decode(await readBytes(file));
-}
-
-/** Field of a point set without a given size: from 0 to the largest coordinate, rounded up. */
-function boundsOf(p: Float64Array): [number, number] {
-  let mx = 0;
-  let my = 0;
-  for (let i = 0; i < p.length; i += 2) (mx = Math.max(mx, p[i]!)), (my = Math.max(my, p[i + 1]!));
-  return [Math.max(1, Math.ceil(mx)), Math.max(1, Math.ceil(my))];
 }

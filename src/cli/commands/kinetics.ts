@@ -7,11 +7,12 @@ import { basename, join } from 'node:path';
 import { cropImage, reanalyzeLabels } from '../../core/analyze';
 import { sharedReferencePool } from '../../node/referencePool';
 import { describeError, SettingsError, TessellabError } from '../../core/errors';
-import { decodeImage } from '../../core/image/decode';
 import { encodePng } from '../../core/image/encode';
-import { kineticsCsv, kineticsJson } from '../../core/export/kinetics';
-import { analyzeSeriesDetailed, parseTimesCsv, parseTimesList, timesFromNames, type KineticsResult } from '../../core/kinetics/index';
+import { kineticsCsv } from '../../core/export/kinetics';
+import type { KineticsResult } from '../../core/kinetics/index';
 import { resolveSettings, type SettingsInput } from '../../core/settings';
+import { openFile, type OpenedFile } from '../../app/open';
+import { analyseSeries, gatherSeries, seriesFiles, type SeriesTimes } from '../../app/series';
 import type { GreyImage, Rect } from '../../core/types';
 import { parseArgs, positiveNumber } from '../args';
 import type { Command } from '../main';
@@ -82,53 +83,31 @@ export const command: Command = {
     if (field) settingsIn.field = field;
     const settings = resolveSettings(settingsIn);
 
-    const frames: GreyImage[] = [];
-    const sources: string[] = [];
-    let fileUmPerPx: number | null = null;
+    const opened: OpenedFile[] = [];
     for (const [i, path] of args.positional.entries()) {
       process.stderr.write(`kinetics: reading ${i + 1} of ${args.positional.length}: ${path}\n`);
-      const name = basename(path);
-      const dec = await decodeImage(new Uint8Array(await readFile(path)), { name });
-      fileUmPerPx ??= dec.umPerPx;
-      dec.pages.forEach((p, k) => {
-        frames.push(p);
-        sources.push(dec.pages.length > 1 ? `${name}[${k + 1}]` : name);
-      });
+      opened.push(await openFile(basename(path), new Uint8Array(await readFile(path)), { as: 'image' }));
     }
-    if (settings.umPerPx === null && fileUmPerPx !== null) settings.umPerPx = fileUmPerPx;
-    let times = o.has('times')
-      ? parseTimesList(o.get('times')!)
+    const times: SeriesTimes = o.has('times')
+      ? { kind: 'list', text: o.get('times')! }
       : o.has('times-csv')
-        ? parseTimesCsv(await readFile(o.get('times-csv')!, 'utf8'), sources)
-        : timesFromNames(sources);
-    if (!o.has('times') && !o.has('times-csv')) {
-      // Times read from the names fix the order too: a shell glob sorts 't10' before 't9'.
-      const order = times.map((_, i) => i).sort((a, b) => times[a]! - times[b]!);
-      if (order.some((k, i) => k !== i)) {
-        process.stderr.write('kinetics: frames put in the order of the times in their file names\n');
-        const [f, s] = [frames.slice(), sources.slice()];
-        order.forEach((k, i) => {
-          frames[i] = f[k]!;
-          sources[i] = s[k]!;
-        });
-        times = order.map((k) => times[k]!);
-      }
-    }
+        ? { kind: 'csv', text: await readFile(o.get('times-csv')!, 'utf8') }
+        : { kind: 'names' };
+    const series = gatherSeries(opened, times);
+    if (series.reordered) process.stderr.write('kinetics: frames put in the order of the times in their file names\n');
+    const frames = series.frames;
 
-    const timeUnit = o.get('time-unit') ?? 's';
-    const { result, mosaic } = await analyzeSeriesDetailed(frames, times, settings, {
-      timeUnit,
-      sources,
+    const run = await analyseSeries(series, settings, {
+      timeUnit: o.get('time-unit') ?? 's',
       allowDecreasing: args.flags.has('allow-decreasing'),
       onProgress: (stage) => {
         if (stage.startsWith('frame')) process.stderr.write(`kinetics: ${stage}\n`);
       },
     });
+    const { result, mosaic } = run;
     const out = o.get('out') ?? '.';
     await mkdir(out, { recursive: true });
-    await writeFile(join(out, 'kinetics.csv'), kineticsCsv(result));
-    await writeFile(join(out, 'kinetics.json'), kineticsJson(result));
-    await writeFile(join(out, 'settings.json'), JSON.stringify(settings, null, 2) + '\n');
+    for (const f of seriesFiles(run)) await writeFile(join(out, f.name), f.text);
     for (const w of result.warnings) process.stderr.write(`kinetics: warning: ${w}\n`);
     process.stdout.write(headline(result) + '\n');
 
@@ -141,7 +120,7 @@ export const command: Command = {
         const last = frames[frames.length - 1]!;
         const f = result.field;
         const crop: GreyImage = cropImage(last, f);
-        const an = await reanalyzeLabels(mosaic.labels, crop, { ...settings, pattern: 'walls', field: f }, { width: last.width, height: last.height }, { referencePool: sharedReferencePool() });
+        const an = await reanalyzeLabels(mosaic.labels, crop, { ...run.settings, pattern: 'walls', field: f }, { width: last.width, height: last.height }, { referencePool: sharedReferencePool() });
         const nuclei = mosaic.nuclei;
         await writeFile(join(out, 'final.summary.json'), JSON.stringify({ summary: an.summary, nuclei, complete: mosaic.complete }, null, 2) + '\n');
         if (!mosaic.complete) process.stderr.write('kinetics: warning: the last frame has not reached fitMax; the mosaic still has untransformed gaps.\n');

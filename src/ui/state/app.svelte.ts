@@ -8,10 +8,11 @@ import type { EditOp } from '../../core/edit/labels';
 import type { Rect } from '../../core/types';
 import type { AnalysisResult, GrainResult, PreviewResult } from '../../../workers/protocol';
 import { KineticsState } from './kinetics.svelte';
-import { Bridge, CancelledRunError, SupersededError, WorkerCrashedError } from '../bridge';
+import { Bridge, errorKind, errorMessage } from '../bridge';
+import { calibrated } from '../../app/calibration';
 import {
   deleteEntry, loadEntries, loadSession, saveEntry, saveSession, type EntryStatus, type Layers, type StoredEntry,
-} from '../db';
+} from '../../storage/db';
 
 /** The largest image the web app opens, in pixels (the command line allows more). */
 export const WEB_MAX_PIXELS = 64_000_000;
@@ -30,19 +31,35 @@ export const PANELS: { name: PanelName; label: string; key: string }[] = [
 
 type Mode = 'restore' | 'segment' | 'measure';
 
+/** The notice of an entry whose run was cancelled. */
+const CANCELLED_NOTICE = 'Cancelled. Change a setting or press Analyse to run it again.';
+
 let nextId = 0;
 function newId(): string {
   return `${Date.now().toString(36)}-${(nextId++).toString(36)}-${Math.random().toString(36).slice(2, 8)}`;
 }
 
+/**
+ * A positive length as typed (a decimal comma allowed): the number, or an error message for the Scale
+ * panel naming the quantity and its unit.
+ */
+function parsePositive(text: string, name: string, unit: string): { value: number } | { error: string } {
+  const t = text.trim().replace(',', '.');
+  if (t === '') return { error: `Type a ${name} in ${unit}, e.g. 0.5.` };
+  const v = Number(t);
+  if (!Number.isFinite(v)) return { error: `"${text}" is not a number; type the ${name} in ${unit}, e.g. 0.5.` };
+  if (v <= 0) return { error: `The ${name} must be above 0 ${unit}; got ${v}.` };
+  return { value: v };
+}
+
 /** Pixel size as typed: a positive finite number, or an error message for the Scale panel. */
 export function parsePixelSize(text: string): { value: number } | { error: string } {
-  const t = text.trim().replace(',', '.');
-  if (t === '') return { error: 'Type a pixel size in µm per pixel, e.g. 0.5.' };
-  const v = Number(t);
-  if (!Number.isFinite(v)) return { error: `"${text}" is not a number; type the pixel size in µm per pixel, e.g. 0.5.` };
-  if (v <= 0) return { error: `The pixel size must be above 0 µm per pixel; got ${v}.` };
-  return { value: v };
+  return parsePositive(text, 'pixel size', 'µm per pixel');
+}
+
+/** Length of a scale bar as typed (µm): a positive finite number, or an error message for the Scale panel. */
+export function parseBarLength(text: string): { value: number } | { error: string } {
+  return parsePositive(text, 'scale bar length', 'µm');
 }
 
 /** One image (or point set) in the list. */
@@ -58,6 +75,10 @@ export class Entry {
   error = $state<string | null>(null);
   /** A note that is not an error (e.g. edits cleared by a new detection). */
   notice = $state<string | null>(null);
+  /** Whether the notice is the one of a cancelled run (the list then offers to analyse again). */
+  get cancelled(): boolean {
+    return this.notice === CANCELLED_NOTICE;
+  }
   width = $state(0);
   height = $state(0);
   umPerPxFromFile = $state<number | null>(null);
@@ -95,9 +116,7 @@ export class Entry {
 
   /** The settings sent to the worker: a plain copy, the file's pixel size used when none was typed. */
   effectiveSettings(): Settings {
-    const s = $state.snapshot(this.settings) as Settings;
-    if (s.umPerPx === null && this.umPerPxFromFile !== null) s.umPerPx = this.umPerPxFromFile;
-    return s;
+    return calibrated($state.snapshot(this.settings) as Settings, this.umPerPxFromFile).settings;
   }
 
   toStored(): StoredEntry {
@@ -208,7 +227,7 @@ export class AppState {
     this.cvStatus = 'loading';
     this.bridge.warmUp().then(
       () => { this.cvStatus = 'ready'; },
-      (e: unknown) => { if (!(e instanceof CancelledRunError)) this.cvStatus = 'error'; else this.cvStatus = 'idle'; },
+      (e: unknown) => { this.cvStatus = errorKind(e) === 'Cancelled' ? 'idle' : 'error'; },
     );
   }
 
@@ -438,23 +457,22 @@ export class AppState {
       e.status = 'analysing';
       e.stage = 'Starting';
       e.fraction = 0;
-      const settings = resolveSettings(e.effectiveSettings());
+      // The entry's own pixel size (or none): the worker falls back to the file's and records which it used.
+      const settings = resolveSettings($state.snapshot(e.settings) as Settings);
       const r = await this.bridge.analyze(
-        {
-          id: e.id, settings, ops: e.ops, reuseLabels: mode === 'measure',
-          calibrationSource: e.settings.umPerPx !== null ? 'user' : e.umPerPxFromFile !== null ? 'file' : 'none',
-        },
+        { id: e.id, settings, ops: e.ops, reuseLabels: mode === 'measure' },
         (stage, fraction) => { e.stage = stage; e.fraction = fraction; },
       );
       this.accept(e, r);
       if (mode !== 'measure') e.preview = null;
     } catch (err) {
-      if (err instanceof SupersededError) return;
+      const kind = errorKind(err);
+      if (kind === 'Superseded') return;
       job.onFail?.();
-      const msg = err instanceof Error ? err.message : String(err);
-      if (err instanceof CancelledRunError || /cancelled/i.test(msg)) {
+      const msg = errorMessage(err);
+      if (kind === 'Cancelled') {
         e.status = e.result ? 'done' : 'queued';
-        e.notice = 'Cancelled. Change a setting or press Analyse to run it again.';
+        e.notice = CANCELLED_NOTICE;
         e.stage = '';
       } else if (job.onFail && e.result) {
         // A failed edit: the earlier result stays, the message goes beside the edit buttons.
@@ -463,7 +481,6 @@ export class AppState {
       } else {
         e.status = hadResult ? 'done' : 'error';
         e.error = msg;
-        if (err instanceof WorkerCrashedError) e.error = msg;
       }
     } finally {
       this.save(e);
@@ -534,7 +551,7 @@ export class AppState {
       const g = await this.bridge.grain(e.id);
       if (e.result === r) e.grain = { of: r, value: g, error: null };
     } catch (err) {
-      if (e.result === r) e.grain = { of: r, value: null, error: err instanceof Error ? err.message.replace(/^Error: /, '') : String(err) };
+      if (e.result === r) e.grain = { of: r, value: null, error: errorMessage(err) };
     }
   }
 

@@ -6,14 +6,11 @@
 import { resolveSettings, type Settings, type SettingsInput } from '../../core/settings';
 import type { KineticsRun, KineticsTimes } from '../../../workers/protocol';
 import type { AppState } from './app.svelte';
+import { errorMessage } from '../bridge';
 
 export type SeriesSource = 'images' | 'pages';
 export type TimesKind = 'list' | 'names' | 'csv';
 
-/** The message of an error that crossed the worker (comlink may prefix the class name). */
-function messageOf(err: unknown): string {
-  return (err instanceof Error ? err.message : String(err)).replace(/^(Error|\w+Error): /, '');
-}
 
 export class KineticsState {
   source = $state<SeriesSource>('images');
@@ -89,7 +86,7 @@ export class KineticsState {
     }
     if (this.timesKind === 'csv' && !this.csvText.trim()) { this.error = 'Choose a CSV of file,time lines, or type the times.'; return; }
     let settings: Settings;
-    try { settings = this.settings(); } catch (err) { this.error = messageOf(err); return; }
+    try { settings = this.settings(); } catch (err) { this.error = errorMessage(err); return; }
     this.running = true;
     this.stage = 'Starting';
     this.fraction = 0;
@@ -108,7 +105,7 @@ export class KineticsState {
       this.finalError = null;
       if (!this.manualThreshold) this.threshold = r.result.phase.threshold;
     } catch (err) {
-      this.error = messageOf(err);
+      this.error = errorMessage(err);
     } finally {
       this.running = false;
       this.stage = '';
@@ -130,7 +127,7 @@ export class KineticsState {
       this.app.select(e.id);
       this.finalMessage = `Added ${name}: ${fin.domains} domains${fin.complete ? '' : ' (the last frame has not reached the fit range\'s upper end, so the mosaic has gaps)'}; its Randomness panel compares them with random seeding.`;
     } catch (err) {
-      this.finalError = messageOf(err);
+      this.finalError = errorMessage(err);
     } finally {
       this.finalBusy = false;
     }

@@ -1,6 +1,6 @@
 import 'fake-indexeddb/auto';
 import { describe, it, expect } from 'vitest';
-import { loadEntries, saveEntry, deleteEntry, loadSession, saveSession, type StoredEntry } from '../../../src/ui/db';
+import { loadEntries, saveEntry, deleteEntry, loadSession, saveSession, type StoredEntry } from '../../../src/storage/db';
 import { defaultSettings } from '../../../src/core/settings';
 
 function entry(id: string, order: number): StoredEntry {

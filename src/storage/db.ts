@@ -1,7 +1,8 @@
 /**
- * The session store in IndexedDB, shared by the page and the worker. The page keeps the light records
- * (entries: names, settings, edit history, status; the session: selection, layers, theme); the worker keeps
- * the heavy ones (image bytes, results, base labels), so large structured clones never run on the page.
+ * The session store in IndexedDB, shared by the page and the worker (so it lives outside both). The page
+ * keeps the light records (entries: names, settings, edit history, status; the session: selection, layers,
+ * theme); the worker keeps the heavy ones (image bytes, results, base labels), so large structured clones
+ * never run on the page.
  */
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { Analysis } from '../core/analysis.types';
