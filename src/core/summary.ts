@@ -11,7 +11,7 @@ import type { ResolvedPixelSize } from './image/calibration';
 import type { PatternKind, Settings } from './settings';
 import type { RandomnessResult, TestRow, Verdict } from './stats/randomness';
 import type { Quality } from './stats/quality';
-import type { ReferenceSummary } from './reference/montecarlo';
+import type { ReferenceSummary } from './reference/summary';
 import type { EventsDispersion } from './stats/events';
 import type { Rect } from './types';
 

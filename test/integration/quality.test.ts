@@ -25,13 +25,13 @@ function noise(W: number, H: number, seed: number): GreyImage {
 }
 
 describe('quality check', () => {
-  it('fails on ragged cells and on a long tail of giant areas, passes convex cells of even size', () => {
+  it('fails on ragged cells, notes a long tail of giant areas, passes convex cells of even size', () => {
     expect(assessQuality(new Float64Array(50).fill(0.95), 0.5).ok).toBe(true);
     const ragged = assessQuality(new Float64Array(50).fill(MIN_MEDIAN_SOLIDITY - 0.05), 0.5);
     expect(ragged.ok).toBe(false);
     expect(ragged.warnings[0]).toMatch(/ragged.*Check the overlay/);
     const giants = assessQuality(new Float64Array(50).fill(0.95), MAX_AREA_CV + 0.5);
-    expect(giants.ok).toBe(false);
+    expect(giants.ok).toBe(true);
     expect(giants.warnings[0]).toMatch(/long tail of giants/);
     // A points pattern has no solidity; its notices are kept without failing it.
     expect(assessQuality(null, 0.5, ['3 duplicated points were merged.'])).toMatchObject({ ok: true, warnings: ['3 duplicated points were merged.'] });

@@ -6,7 +6,8 @@
  */
 import { SettingsError } from '../../core/errors';
 import { publishedConstants } from '../../core/reference/constants';
-import { referenceSummary, type ReferenceLayout } from '../../core/reference/montecarlo';
+import type { ReferenceLayout } from '../../core/reference/montecarlo';
+import { referenceSummary } from '../../core/reference/summary';
 import { startReference } from '../../core/reference/parallel';
 import { sharedReferencePool } from '../../node/referencePool';
 import type { EdgeRule } from '../../core/settings';

@@ -16,6 +16,8 @@ import {
   type AreaStats,
 } from '../stats/pattern';
 import { PV_AREA_GAMMA_SHAPE } from './constants';
+import { cachedReferenceFor, rememberReference } from './cache';
+import { countFinite, ecdfOnGrid, envelope, meanSd, type Envelope } from './envelope';
 import { STATISTICS, STATISTIC_KEYS, type PatternCurves, type PatternFigures, type ReferenceCurves, type StatisticKey } from '../stats/registry';
 
 /**
@@ -57,20 +59,7 @@ export interface ReferenceOptions {
   cache?: boolean;
 }
 
-/** How many references the cache keeps (least recently used dropped first; each is a few hundred kB). */
-export const REFERENCE_CACHE_SIZE = 8;
-const cache = new Map<string, Reference>();
-
-/** Empties the reference cache (for memory, or to time a cold run). */
-export function clearReferenceCache(): void {
-  cache.clear();
-}
-
-function cacheKey(o: ReferenceOptions): string {
-  const f = o.field;
-  const minArea = o.minCellAreaPx && o.minCellAreaPx > 0 ? o.minCellAreaPx : 0;
-  return JSON.stringify([o.cells, f.x0, f.y0, f.x1, f.y1, o.replicates, o.seed, o.edgeRule, minArea, o.layout ?? 'seeds', o.density ?? null]);
-}
+export { REFERENCE_CACHE_SIZE, cachedReferenceFor, clearReferenceCache, rememberReference } from './cache';
 
 /** Names of the scalar statistics every replicate records: the statistics registry's keys, in its order. */
 export const REFERENCE_STATISTICS = STATISTIC_KEYS;
@@ -80,16 +69,6 @@ export type ReferenceStatistic = StatisticKey;
 export const AREA_GRID_STEP = 0.05;
 export const AREA_GRID_MAX = 4;
 
-/** Pointwise summary of a curve over the replicates. */
-export interface Envelope {
-  mean: Float64Array;
-  /** 2.5 % and 97.5 % pointwise quantiles. */
-  lo: Float64Array;
-  hi: Float64Array;
-  /** Pointwise extremes over all replicates. */
-  min: Float64Array;
-  max: Float64Array;
-}
 
 /** The reference: per-replicate statistics, their summaries and the envelopes of the distributions. */
 export interface Reference {
@@ -146,28 +125,6 @@ export interface Reference {
 export function referenceMonteCarlo(opts: ReferenceOptions): Reference {
   if (opts.cache === false) return draw(opts);
   return cachedReferenceFor(opts) ?? rememberReference(opts, draw(opts));
-}
-
-/** The cached reference for these options (reported to onProgress as done), or null. */
-export function cachedReferenceFor(opts: ReferenceOptions): Reference | null {
-  const key = cacheKey(opts);
-  const hit = cache.get(key);
-  if (!hit) return null;
-  cache.delete(key);
-  cache.set(key, hit);
-  opts.onProgress?.(1);
-  return hit;
-}
-
-/** Freezes a reference drawn for these options and keeps it in the cache; returns it. */
-export function rememberReference(opts: ReferenceOptions, ref: Reference): Reference {
-  Object.freeze(ref.options.field);
-  Object.freeze(ref.options);
-  Object.freeze(ref.warnings);
-  Object.freeze(ref);
-  cache.set(cacheKey(opts), ref);
-  while (cache.size > REFERENCE_CACHE_SIZE) cache.delete(cache.keys().next().value!);
-  return ref;
 }
 
 function draw(opts: ReferenceOptions): Reference {
@@ -522,135 +479,4 @@ function pooledClasses(w: Float64Array, v: Float64Array): { n: number[]; value: 
   return { n, value };
 }
 
-/** ECDF of a sample at the grid points into out[offset ..]. */
-export function ecdfOnGrid(a: Pick<AreaStats, 'sorted' | 'cumulative'>, grid: Float64Array, out: Float64Array, offset: number): void {
-  let k = 0;
-  let c = 0;
-  for (let g = 0; g < grid.length; g++) {
-    while (k < a.sorted.length && a.sorted[k]! <= grid[g]!) c = a.cumulative[k++]!;
-    out[offset + g] = c;
-  }
-}
 
-function countFinite(a: Float64Array): number {
-  let c = 0;
-  for (const v of a) if (Number.isFinite(v)) c++;
-  return c;
-}
-
-/** Mean and sample standard deviation of the finite entries. */
-export function meanSd(a: ArrayLike<number>): [number, number] {
-  let n = 0;
-  let s = 0;
-  for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i]!)) { s += a[i]!; n++; }
-  if (!n) return [Number.NaN, Number.NaN];
-  const m = s / n;
-  let v = 0;
-  for (let i = 0; i < a.length; i++) if (Number.isFinite(a[i]!)) v += (a[i]! - m) ** 2;
-  return [m, n > 1 ? Math.sqrt(v / (n - 1)) : Number.NaN];
-}
-
-/** Pointwise mean, 2.5 %/97.5 % quantiles and extremes of R curves of length L stored row by row. */
-export function envelope(curves: Float64Array, R: number, L: number): Envelope {
-  const mean = new Float64Array(L);
-  const lo = new Float64Array(L);
-  const hi = new Float64Array(L);
-  const min = new Float64Array(L);
-  const max = new Float64Array(L);
-  const col = new Float64Array(R);
-  for (let k = 0; k < L; k++) {
-    let m = 0;
-    for (let r = 0; r < R; r++) {
-      const v = curves[r * L + k]!;
-      if (Number.isFinite(v)) col[m++] = v;
-    }
-    if (!m) {
-      mean[k] = lo[k] = hi[k] = min[k] = max[k] = Number.NaN;
-      continue;
-    }
-    const c = col.subarray(0, m).sort();
-    let s = 0;
-    for (let j = 0; j < m; j++) s += c[j]!;
-    mean[k] = s / m;
-    lo[k] = quantileSorted(c, 0.025);
-    hi[k] = quantileSorted(c, 0.975);
-    min[k] = c[0]!;
-    max[k] = c[m - 1]!;
-  }
-  return { mean, lo, hi, min, max };
-}
-
-/** Linear-interpolation quantile of sorted values (the usual "type 7" definition; trade). */
-export function quantileSorted(c: ArrayLike<number>, q: number): number {
-  const h = (c.length - 1) * q;
-  const a = Math.floor(h);
-  const b = Math.min(c.length - 1, a + 1);
-  return c[a]! + (h - a) * (c[b]! - c[a]!);
-}
-
-const round = (v: number, d = 6): number | null => (Number.isFinite(v) ? Number(v.toPrecision(d)) : null);
-const arr = (a: ArrayLike<number>, d = 6): (number | null)[] => Array.from(a as ArrayLike<number>, (v) => round(v, d));
-
-/** An envelope in JSON: numbers rounded, null where a value is missing. */
-export interface EnvelopeJson {
-  mean: (number | null)[];
-  lo: (number | null)[];
-  hi: (number | null)[];
-  min: (number | null)[];
-  max: (number | null)[];
-}
-
-/** What summary.json and the `reference` command say of a reference. */
-export interface ReferenceSummary {
-  cells: number;
-  field: Rect;
-  replicates: number;
-  seed: number;
-  edgeRule: EdgeRule;
-  minCellAreaPx: number;
-  layout: ReferenceLayout;
-  densityPerPx2: number | null;
-  seedsPerReplicate: number;
-  interiorCellsTotal: number;
-  /** Mean and sd over the replicates of each statistic of the registry (and its values when asked for). */
-  statistics: Record<string, { mean: number | null; sd: number | null; values?: (number | null)[] }>;
-  sides: { n: number[] } & EnvelopeJson;
-  areaEcdf: { y: (number | null)[] } & EnvelopeJson;
-  areaHistogram: { y0: (number | null)[]; binWidth: number } & EnvelopeJson;
-  lFunction: { rPx: (number | null)[] } & EnvelopeJson;
-  lewis: { n: number[]; meanNormalisedArea: (number | null)[] };
-  aboavWeaire: { n: number[]; meanNeighbourSides: (number | null)[] };
-  warnings: string[];
-}
-
-/**
- * A JSON-serialisable summary of a reference: its options, mean and sd of each statistic, the side
- * distribution and area and L-function envelopes. Replicate values are included only if asked for.
- */
-export function referenceSummary(ref: Reference, opts: { includeValues?: boolean } = {}): ReferenceSummary {
-  const stats: ReferenceSummary['statistics'] = {};
-  for (const name of REFERENCE_STATISTICS) {
-    stats[name] = { mean: round(ref.mean[name]), sd: round(ref.sd[name]), ...(opts.includeValues ? { values: arr(ref.values[name]) } : {}) };
-  }
-  const env = (e: Envelope): EnvelopeJson => ({ mean: arr(e.mean), lo: arr(e.lo), hi: arr(e.hi), min: arr(e.min), max: arr(e.max) });
-  return {
-    cells: ref.options.cells,
-    field: ref.options.field,
-    replicates: ref.options.replicates,
-    seed: ref.options.seed,
-    edgeRule: ref.options.edgeRule,
-    minCellAreaPx: ref.options.minCellAreaPx,
-    layout: ref.options.layout,
-    densityPerPx2: round(ref.options.density),
-    seedsPerReplicate: ref.seedsPerReplicate,
-    interiorCellsTotal: ref.interiorCellsTotal,
-    statistics: stats,
-    sides: { n: Array.from({ length: MAX_SIDES + 1 }, (_, n) => n), ...env(ref.sides) },
-    areaEcdf: { y: arr(ref.areaGrid), ...env(ref.areaEcdf) },
-    areaHistogram: { y0: arr(ref.areaGrid.subarray(0, ref.areaGrid.length - 1)), binWidth: AREA_GRID_STEP, ...env(ref.areaHistogram) },
-    lFunction: { rPx: arr(ref.lRadii), ...env(ref.lFunction) },
-    lewis: { n: ref.lewis.n, meanNormalisedArea: arr(ref.lewis.value) },
-    aboavWeaire: { n: ref.aboav.n, meanNeighbourSides: arr(ref.aboav.value) },
-    warnings: ref.warnings,
-  };
-}

@@ -12,7 +12,7 @@
 
 /** Below this median solidity the cells are too ragged to be cells (noise, texture, merged regions). */
 export const MIN_MEDIAN_SOLIDITY = 0.85;
-/** Above this area CV the areas have a long tail of giants (merged cells or background taken as cells). */
+/** Above this area CV the areas have a long tail of giants (merged cells or background taken as cells): a notice. */
 export const MAX_AREA_CV = 1.5;
 /** Above this fraction of cells with solidity below 0.8, many cells are likely merged (a notice only). */
 export const MAX_RAGGED_FRACTION = 0.2;
@@ -34,7 +34,8 @@ function median(a: ArrayLike<number>): number {
 
 /**
  * The quality of a segmentation.
- * @param solidity per-cell solidity (area / convex-hull area), or null for a points pattern
+ * @param solidity per-cell solidity (area / convex-hull area) of a segmentation, or null for a points pattern (which
+ *   has no segmentation to check)
  * @param areaCv coefficient of variation of the cells' areas in the statistics, or null
  * @param extra notices from earlier stages (e.g. merged duplicate points), which do not fail the check
  */
@@ -58,8 +59,8 @@ export function assessQuality(solidity: ArrayLike<number> | null, areaCv: number
       warnings.push(`${(100 * raggedFraction).toFixed(0)} % of the cells have a solidity below 0.8: some are probably merged. Check the overlay and split them.`);
     }
   }
-  if (areaCv !== null && Number.isFinite(areaCv) && areaCv > MAX_AREA_CV) {
-    ok = false;
+  // A notice only: strongly clustered seeds give a legitimately broad area distribution too.
+  if (solidity && areaCv !== null && Number.isFinite(areaCv) && areaCv > MAX_AREA_CV) {
     warnings.push(
       `The cell areas have a long tail of giants (area CV ${areaCv.toFixed(2)}, above ${MAX_AREA_CV}): cells are merged, or background is taken as cells. `
       + 'Check the overlay and the pattern kind.',

@@ -7,10 +7,9 @@ import type { Settings } from '../settings';
 import type { Tessellation } from '../tessellate';
 import type { LabelImage, Rect } from '../types';
 import { PV_AREA_GAMMA_SHAPE, PV_SIDES_DISTRIBUTION, LEMAITRE_CONSTANT, LEMAITRE_RANGE, type PublishedValue } from '../reference/constants';
-import {
-  AREA_GRID_MAX, AREA_GRID_STEP, ecdfOnGrid, referenceMonteCarlo, referenceSummary,
-  type Reference, type ReferenceLayout, type ReferenceOptions, type ReferenceSummary,
-} from '../reference/montecarlo';
+import { AREA_GRID_MAX, AREA_GRID_STEP, referenceMonteCarlo, type Reference, type ReferenceLayout, type ReferenceOptions } from '../reference/montecarlo';
+import { ecdfOnGrid } from '../reference/envelope';
+import { referenceSummary, type ReferenceSummary } from '../reference/summary';
 import { STATISTICS, type PatternCurves, type PatternFigures, type StatisticKey } from './registry';
 import { chiSquareUpper, gammaPdf, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';

@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { referenceMonteCarlo, referenceSummary } from '../../../src/core/reference/montecarlo';
+import { referenceMonteCarlo } from '../../../src/core/reference/montecarlo';
+import { referenceSummary } from '../../../src/core/reference/summary';
 import { PV_SIDES_DISTRIBUTION } from '../../../src/core/reference/constants';
 import { SettingsError, TooFewCellsError } from '../../../src/core/errors';
 

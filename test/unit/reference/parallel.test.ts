@@ -7,8 +7,9 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { CancelledError, SettingsError, TooFewCellsError } from '../../../src/core/errors';
 import {
-  combineReplicates, drawReplicates, planReference, referenceMonteCarlo, referenceSummary, type ReferenceOptions, type ReferencePlan, type ReplicateBatch,
+  combineReplicates, drawReplicates, planReference, referenceMonteCarlo, type ReferenceOptions, type ReferencePlan, type ReplicateBatch,
 } from '../../../src/core/reference/montecarlo';
+import { referenceSummary } from '../../../src/core/reference/summary';
 import { CHUNKS_IN_FLIGHT, chunkSize, startReference, type ReferencePool } from '../../../src/core/reference/parallel';
 import { createNodeReferencePool } from '../../../src/node/referencePool';
 
