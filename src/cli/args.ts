@@ -1,5 +1,6 @@
 /** A small argument parser: positional values and --name value / --flag options. */
 import { SettingsError } from '../core/errors';
+import { parseDecimal, parseWhole } from '../core/numbers';
 
 export interface ParsedArgs {
   positional: string[];
@@ -34,17 +35,17 @@ export function parseArgs(argv: string[], valued: string[], flags: string[] = []
   return { positional, options, flags: set };
 }
 
-/** A positive finite number from an option, or a SettingsError naming it. */
+/** A positive finite number in decimal notation from an option ("0x10" is not 16), or a SettingsError naming it. */
 export function positiveNumber(v: string, name: string): number {
-  const x = Number(v);
-  if (!Number.isFinite(x) || x <= 0) throw new SettingsError(`--${name} must be a positive number; got "${v}".`);
+  const x = parseDecimal(v);
+  if (!Number.isFinite(x) || x <= 0) throw new SettingsError(`--${name} must be a positive number in decimal notation (e.g. 0.65 or 6.5e-1); got "${v}".`);
   return x;
 }
 
-/** A positive integer from an option. */
+/** A positive whole number in plain digits from an option ("1e3", "2.0" and "0x10" are refused). */
 export function positiveInt(v: string, name: string): number {
-  const x = Number(v);
-  if (!Number.isInteger(x) || x <= 0) throw new SettingsError(`--${name} must be a positive whole number; got "${v}".`);
+  const x = parseWhole(v);
+  if (!Number.isInteger(x) || x <= 0) throw new SettingsError(`--${name} must be a positive whole number in plain digits; got "${v}".`);
   return x;
 }
 
