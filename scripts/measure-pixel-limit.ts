@@ -4,6 +4,7 @@
  * never shrinks), and prints one JSON line: pattern, megapixels, ok, and the error or the heap reached.
  *
  *   npx tsx scripts/measure-pixel-limit.ts walls 120        # one size
+ *   npx tsx scripts/measure-pixel-limit.ts walls 100 3      # the same size 3 times in one process (a batch)
  *   npx tsx scripts/measure-pixel-limit.ts search walls 100 140   # bisection, a child process per size
  *
  * The image is a 1024 x 1024 window of the project's generator tiled to the size asked (cut cells at the
@@ -22,7 +23,7 @@ import { segmentWalls } from '../src/core/segment/walls';
 import { resolveSettings } from '../src/core/settings';
 import { synthesize } from '../src/core/synth/index';
 
-async function one(pattern: 'walls' | 'bodies', mp: number): Promise<void> {
+async function one(pattern: 'walls' | 'bodies', mp: number, round = 1): Promise<void> {
   const side = Math.round(Math.sqrt(mp * 1e6));
   const tile = synthesize({ pattern, cells: 400, width: 1024, height: 1024, order: 'random', seed: 3, window: pattern === 'walls' });
   const data = new Uint8Array(side * side);
@@ -32,7 +33,7 @@ async function one(pattern: 'walls' | 'bodies', mp: number): Promise<void> {
   }
   const { cv } = await loadCv();
   const t0 = performance.now();
-  let line: Record<string, unknown> = { pattern, megapixels: (side * side) / 1e6, side };
+  let line: Record<string, unknown> = { pattern, megapixels: (side * side) / 1e6, side, round };
   try {
     // The two steps that run in opencv.js, called directly: the analysis's own size check would refuse the
     // sizes beyond the limit that this script is there to measure.
@@ -66,4 +67,4 @@ function search(pattern: string, lo: number, hi: number): void {
 
 const [a, b, c, d] = process.argv.slice(2);
 if (a === 'search') search(b!, Number(c), Number(d));
-else await one(a as 'walls' | 'bodies', Number(b));
+else for (let k = 1; k <= Number(c ?? 1); k++) await one(a as 'walls' | 'bodies', Number(b), k);

@@ -16,6 +16,7 @@ import { analyseSeries, gatherSeries, seriesFiles, type SeriesTimes } from '../.
 import type { GreyImage, Rect } from '../../core/types';
 import { parseArgs, positiveNumber } from '../args';
 import type { Command } from '../main';
+import { readInputFile } from '../../node/inputFile';
 
 const VALUED = ['times', 'times-csv', 'time-unit', 'out', 'threshold', 'phase', 'fit-min', 'fit-max', 'fit-method', 'field', 'um-per-px', 'settings'];
 const FLAGS = ['incubation', 'allow-decreasing', 'final-analysis'];
@@ -86,7 +87,7 @@ export const command: Command = {
     const opened: OpenedFile[] = [];
     for (const [i, path] of args.positional.entries()) {
       process.stderr.write(`kinetics: reading ${i + 1} of ${args.positional.length}: ${path}\n`);
-      opened.push(await openFile(basename(path), new Uint8Array(await readFile(path)), { as: 'image' }));
+      opened.push(await openFile(basename(path), await readInputFile(path), { as: 'image' }));
     }
     const times: SeriesTimes = o.has('times')
       ? { kind: 'list', text: o.get('times')! }
