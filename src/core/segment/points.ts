@@ -50,7 +50,7 @@ export function parsePointsCsv(text: string, opts: { name?: string } = {}): Poin
     xi = lower.findIndex((c) => X_NAMES.includes(c));
     yi = lower.findIndex((c) => Y_NAMES.includes(c));
     if (xi < 0 || yi < 0) {
-      throw new CsvError(`${where}line 1 is a header without x and y columns (found: ${first.join(', ')}); name them x and y, or remove the header.`);
+      throw new CsvError(`${where}line 1 is a header without x and y columns (found: ${shown(first.join(', '))}); name them x and y, or remove the header.`);
     }
     xColumn = first[xi]!;
     yColumn = first[yi]!;
@@ -70,7 +70,7 @@ export function parsePointsCsv(text: string, opts: { name?: string } = {}): Poin
     const x = parseDecimal(xs);
     const y = parseDecimal(ys);
     if (!Number.isFinite(x) || !Number.isFinite(y)) {
-      throw new CsvError(`${where}line ${line} has a value that is not a number (${JSON.stringify(Number.isFinite(x) ? ys : xs)}) in decimal notation; fix or remove that line.`);
+      throw new CsvError(`${where}line ${line} has a value that is not a number (${JSON.stringify(shown(Number.isFinite(x) ? ys : xs))}) in decimal notation; fix or remove that line.`);
     }
     if (Math.abs(x) > MAX_COORDINATE || Math.abs(y) > MAX_COORDINATE) {
       throw new CsvError(`${where}line ${line} has a coordinate (${Math.abs(x) > MAX_COORDINATE ? xs : ys}) beyond ±${MAX_COORDINATE.toExponential()}, far outside any image; check the units of the file or fix that line.`);
@@ -79,6 +79,13 @@ export function parsePointsCsv(text: string, opts: { name?: string } = {}): Poin
     points[2 * (r - start) + 1] = y;
   }
   return { points, count: n, xColumn, yColumn };
+}
+
+/** Text from a file, fit for a one-line message: control characters as spaces, at most 80 characters. */
+function shown(text: string): string {
+  // eslint-disable-next-line no-control-regex
+  const flat = text.replace(/[\u0000-\u001f\u007f]+/g, ' ');
+  return flat.length > 80 ? `${flat.slice(0, 77)}...` : flat;
 }
 
 /** 1-based line numbers of the non-blank lines of a text. */
