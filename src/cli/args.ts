@@ -49,6 +49,9 @@ export function positiveInt(v: string, name: string): number {
   return x;
 }
 
+/** The largest side of a size given on the command line, px (the largest coordinate of a point). */
+const MAX_SIDE = 1_000_000_000;
+
 /** "WxH" -> [W, H]. */
 export function parseSize(v: string, name = 'size'): [number, number] {
   const m = /^(\d+)x(\d+)$/i.exec(v.trim());
@@ -56,5 +59,6 @@ export function parseSize(v: string, name = 'size'): [number, number] {
   const w = Number(m[1]);
   const h = Number(m[2]);
   if (w < 1 || h < 1) throw new SettingsError(`--${name} must be at least 1x1.`);
+  if (w > MAX_SIDE || h > MAX_SIDE) throw new SettingsError(`--${name} must be at most ${MAX_SIDE}x${MAX_SIDE} px; got "${v}".`);
   return [w, h];
 }

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { main } from '../../../src/cli/main';
-import { positiveInt, positiveNumber } from '../../../src/cli/args';
+import { parseSize, positiveInt, positiveNumber } from '../../../src/cli/args';
 import { CsvError, SettingsError, describeError } from '../../../src/core/errors';
 import { parseDecimal, parseWhole } from '../../../src/core/numbers';
 import { checkReferenceCounts } from '../../../src/core/reference/limits';
@@ -146,6 +146,16 @@ describe('the command line with hostile settings and counts', () => {
     const huge = await run(['analyze', join(dir, 'nothing.png'), '--um-per-px', '1e308', '--out', join(dir, 'o')]);
     expect(huge.code).toBe(1);
     expect(huge.err).toMatch(/^tessellab analyze: The pixel size 1e\+308 µm\/px is outside the plausible range .*\(1e-5 to 1e4 µm\/px\)/);
+  });
+
+  it('kinetics with a settings file that is not JSON names the file; a size beyond 1e9 px is refused', async () => {
+    const f = join(dir, 'broken.json');
+    writeFileSync(f, '{"kinetics": ');
+    const r = await run(['kinetics', join(dir, 'a.png'), join(dir, 'b.png'), join(dir, 'c.png'), '--times', '1,2,3', '--settings', f]);
+    expect(r.code).toBe(1);
+    expect(r.err).toBe(`tessellab kinetics: The settings file ${f} is not valid JSON; fix it or leave out --settings.\n`);
+    expect(() => parseSize('2000000000x5')).toThrow('--size must be at most 1000000000x1000000000 px; got "2000000000x5".');
+    expect(parseSize('1000000000x5')).toEqual([1e9, 5]);
   });
 
   it('reference --cells 100000000 --size 100x100, fractional and huge counts: one line each, nothing drawn', async () => {
