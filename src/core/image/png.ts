@@ -98,8 +98,8 @@ const MAX_ICC_BYTES = 32 * 2 ** 20;
  * gigabyte of image data is refused after a few megabytes, before the decoder allocates it all. A stream
  * that is damaged otherwise is left to the decoder, which names the fault.
  *
- * @throws ImageDecodeError when the image data inflates to more than the header's size, or the profile to
- *   more than 32 MiB
+ * @throws ImageDecodeError when the image data inflates to more or fewer bytes than the header's size, or the
+ *   profile to more than 32 MiB
  */
 function checkInflatedSizes(bytes: Uint8Array, header: PngHeader, name?: string): void {
   const expected = pngRawSize(header);
@@ -124,6 +124,12 @@ function checkInflatedSizes(bytes: Uint8Array, header: PngHeader, name?: string)
   if (!r.ok && r.overflow) {
     throw new ImageDecodeError(
       `${p}the PNG's image data inflates to more than the ${header.width} x ${header.height} px its header gives (${expected} bytes); the file is damaged or made to exhaust memory: re-save it`,
+    );
+  }
+  // Short data is refused here too, before the decoder allocates the whole image for it.
+  if (r.ok && r.length < expected) {
+    throw new ImageDecodeError(
+      `${p}the PNG's image data holds ${r.length} of the ${expected} bytes its ${header.width} x ${header.height} px header gives; the file is damaged or cut short: copy or export it again`,
     );
   }
   if (icc) {

@@ -29,6 +29,13 @@ export interface TiffRaster {
 /** TIFF compression codes (TIFF 6.0 tag 259 and registered extensions) that the decoder reads. */
 const SUPPORTED_COMPRESSION = new Set([1, 5, 8, 32946, 32773]);
 
+/**
+ * The most bytes one stored byte can decode to, by compression: none 1; LZW at most 4096 bytes from one
+ * code of at least 9 bits (a table entry is never longer than the table); Deflate 1032 (a 258-byte match
+ * coded in two bits, RFC 1951); PackBits 64 (two bytes repeat one 128 times).
+ */
+const MAX_EXPANSION: Record<number, number> = { 1: 1, 5: (4096 * 8) / 9, 8: 1032, 32946: 1032, 32773: 64 };
+
 const COMPRESSION_NAMES: Record<number, string> = {
   2: 'CCITT modified Huffman', 3: 'CCITT Group 3', 4: 'CCITT Group 4', 6: 'old-style JPEG', 7: 'JPEG',
   34712: 'JPEG 2000', 34887: 'LERC', 34925: 'LZMA', 50000: 'Zstandard', 50001: 'WebP', 50002: 'JPEG XL',
@@ -130,10 +137,20 @@ async function inspectPage(image: GeoTIFFImage, bytes: Uint8Array, index: number
   if (offsets.length === 0 || counts.length !== offsets.length) {
     throw new ImageDecodeError(`${p}the TIFF has no readable ${tiled ? 'tile' : 'strip'} table${page}; re-save it`);
   }
+  let stored = 0;
   for (let i = 0; i < offsets.length; i++) {
     if (offsets[i] + counts[i] > bytes.length) {
       throw new ImageDecodeError(`${p}the TIFF file is truncated (its image data ends after the file does)${page}; copy or export it again`);
     }
+    stored += counts[i];
+  }
+  // The page's raster is allocated before its strips are decoded: a few stored bytes must not promise
+  // 100 megapixels. No compression read here expands more than MAX_EXPANSION says.
+  const needed = (width * height * samplesPerPixel * bits) / 8;
+  if (stored * MAX_EXPANSION[compression]! < needed) {
+    throw new ImageDecodeError(
+      `${p}the TIFF's image data${page} (${stored} bytes) is too short for the ${width} x ${height} px its header gives; the file is damaged or cut short: copy or export it again`,
+    );
   }
   return { image, width, height, bits, photometric, samplesPerPixel };
 }

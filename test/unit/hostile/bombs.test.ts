@@ -61,6 +61,13 @@ describe('PNG: image data bounded by the header', () => {
     expect(e.message).toMatch(/^bomb\.png: the PNG's image data inflates to more than the 16 x 16 px its header gives \(272 bytes\).*re-save it$/);
   });
 
+  it('a 10000 x 10000 header over a few bytes of image data is refused before the image is allocated', async () => {
+    const e = await failure(png({ width: 10_000, height: 10_000, idat: rawRows([[1, 2, 3]]) }), 'short.png');
+    expect(e).toBeInstanceOf(ImageDecodeError);
+    // 10000 rows of 1 + 10000 bytes (PNG spec 7.2; derived).
+    expect(e.message).toBe("short.png: the PNG's image data holds 4 of the 100010000 bytes its 10000 x 10000 px header gives; the file is damaged or cut short: copy or export it again");
+  });
+
   it('an embedded colour profile that inflates to 40 MiB is refused', async () => {
     const iccp = pngChunk('iCCP', concat([new TextEncoder().encode('bomb'), new Uint8Array([0, 0]), zlibZeros(40 * 2 ** 20)]));
     const e = await failure(png({ width: 16, height: 16, idat: rawRows(grey16x16), before: [iccp] }), 'icc.png');
@@ -110,6 +117,16 @@ describe('TIFF: strips bounded by the header', () => {
     expect(decodePackBits(new Uint8Array([0x81, 7, 0x80, 0x01, 1, 2]), 200)).toEqual(new Uint8Array([...Array(128).fill(7), 1, 2]));
     const e = await failure(tiffFile({ width: 16, height: 16, compression: 32773, strips: [strip] }).bytes, 'pb.tif');
     expect(e.message).toMatch(/^pb\.tif: page 1 of the TIFF decodes to more than the 16 x 16 px/);
+  });
+
+  it('a 10000 x 10000 page over a few stored bytes is refused before its raster is allocated', async () => {
+    // Deflate expands at most 1032 : 1 (a 258-byte match in two bits, RFC 1951; derived): 100 MB needs
+    // at least 96 900 stored bytes.
+    for (const [compression, strip] of [[8, zlibSync(plain)], [5, lzwZeroRuns(1)], [32773, new Uint8Array([0x81, 0])], [1, plain]] as const) {
+      const e = await failure(tiffFile({ width: 10_000, height: 10_000, compression, strips: [strip] }).bytes, 'short.tif');
+      expect(e).toBeInstanceOf(ImageDecodeError);
+      expect(e.message).toBe(`short.tif: the TIFF's image data (${strip.length} bytes) is too short for the 10000 x 10000 px its header gives; the file is damaged or cut short: copy or export it again`);
+    }
   });
 
   it('tiles of 65536 x 65536 px on a 16 x 16 page are refused before any is decoded', async () => {
