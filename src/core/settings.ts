@@ -170,8 +170,8 @@ function merge(base: Record<string, unknown>, over: Record<string, unknown>, pat
     const v = over[k];
     const name = `${path}${k}`;
     if (FORBIDDEN_KEYS.has(k)) { forbidden.push(name); continue; }
+    if (v === undefined) continue; // not a value (JSON has none): as if the key were absent
     if (!Object.hasOwn(base, k)) { unknown.push(name); continue; }
-    if (v === undefined) continue;
     const b = base[k];
     if (k === 'field' && path === '') {
       if (isObj(v)) for (const fk of Object.keys(v)) if (FORBIDDEN_KEYS.has(fk)) forbidden.push(`field.${fk}`); else if (!FIELD_KEYS.includes(fk)) unknown.push(`field.${fk}`);
