@@ -162,7 +162,7 @@ async function readPage(info: PageInfo, name?: string, index = 0): Promise<{ ras
   const samples = photometric === 2 ? [0, 1, 2] : [0];
   let data: Uint8Array | Uint16Array;
   try {
-    const r = await image.readRasters({ samples, interleave: true, pool: boundedPool(height) as never });
+    const r = await image.readRasters({ samples, interleave: true, pool: boundedPool(image.getFileDirectory().hasTag('TileOffsets') ? null : height) as never });
     data = r as unknown as Uint8Array | Uint16Array;
   } catch (e) {
     if (e instanceof BlockError && e.overflow) {

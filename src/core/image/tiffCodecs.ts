@@ -140,12 +140,16 @@ interface BlockDecoder {
 
 /**
  * The largest number of bytes one block (strip or tile) of a page may decode to: tile width x rows x bytes
- * per pixel, where a strip has at most as many rows as the image (RowsPerStrip may say 2³² − 1, "all").
+ * per pixel. A tile is stored whole, even where it reaches past the page; a strip has at most as many rows
+ * as the page (RowsPerStrip may say 2³² − 1, "all").
+ *
+ * @param imageHeight the page's height, px, which bounds a strip's rows; null for a tiled page
  */
-export function blockLimit(p: DecoderParameters, imageHeight: number): number {
+export function blockLimit(p: DecoderParameters, imageHeight: number | null): number {
   const bits = typeof p.bitsPerSample === 'number' ? [p.bitsPerSample] : Array.from(p.bitsPerSample);
   const bitsPerPixel = p.planarConfiguration === 2 ? bits[0] ?? 8 : bits.reduce((s, b) => s + b, 0);
-  return Math.ceil((p.tileWidth * Math.min(p.tileHeight, Math.max(imageHeight, 1)) * bitsPerPixel) / 8);
+  const rows = imageHeight === null ? p.tileHeight : Math.min(p.tileHeight, Math.max(imageHeight, 1));
+  return Math.ceil((p.tileWidth * rows * bitsPerPixel) / 8);
 }
 
 /**
@@ -153,9 +157,9 @@ export function blockLimit(p: DecoderParameters, imageHeight: number): number {
  * PackBits blocks with the bounded decoders above, and leaves uncompressed blocks (which cannot grow) and
  * the predictor to geotiff.
  *
- * @param imageHeight the page's height in px, which bounds a strip's rows
+ * @param imageHeight the page's height in px, which bounds a strip's rows; null for a tiled page
  */
-export function boundedPool(imageHeight: number): { bindParameters(compression: number, params: DecoderParameters): { decode(buffer: ArrayBuffer): Promise<ArrayBuffer> } } {
+export function boundedPool(imageHeight: number | null): { bindParameters(compression: number, params: DecoderParameters): { decode(buffer: ArrayBuffer): Promise<ArrayBuffer> } } {
   return {
     bindParameters(compression, params) {
       let decoder: Promise<BlockDecoder> | null = null;

@@ -93,6 +93,13 @@ describe('TIFF: strips bounded by the header', () => {
     }
   });
 
+  it('a tile taller and wider than its page (32 x 32 on 20 x 20) decodes: a tile is bounded by its own size', async () => {
+    const tile = new Uint8Array(32 * 32).map((_, i) => ((i % 32) * 7 + Math.floor(i / 32)) & 0xff);
+    const d = await decodeImage(tiffFile({ width: 20, height: 20, compression: 8, strips: [zlibSync(tile)], tile: { width: 32, height: 32 } }).bytes);
+    const page = d.pages[0]!;
+    for (let y = 0; y < 20; y++) for (let x = 0; x < 20; x++) expect(page.data[y * 20 + x]).toBe(tile[y * 32 + x]);
+  });
+
   it('a Deflate strip that inflates to 16 MiB under a 16 x 16 header is refused', async () => {
     const { bytes } = tiffFile({ width: 16, height: 16, compression: 8, strips: [zlibZeros(16 * 2 ** 20)] });
     const e = await failure(bytes, 'bomb.tif');

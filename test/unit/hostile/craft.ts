@@ -84,6 +84,8 @@ export interface TiffSpec {
   next?: 'self' | number;
   /** Entries that replace (same tag) or join the usual ones. */
   extra?: Entry[];
+  /** Store `strips` as tiles of this size instead (TileWidth, TileLength, TileOffsets, TileByteCounts). */
+  tile?: { width: number; height: number };
 }
 
 /**
@@ -106,10 +108,17 @@ export function tiffFile(spec: TiffSpec): { bytes: Uint8Array; ifdAt: number } {
   put([258, 3, 8]);
   put([259, 3, spec.compression ?? 1]);
   put([262, 3, 1]);
-  put([273, 4, stripAt]);
   put([277, 3, 1]);
-  put([278, 4, spec.rowsPerStrip ?? spec.height]);
-  put([279, 4, spec.strips.map((s) => s.length)]);
+  if (spec.tile) {
+    put([322, 4, spec.tile.width]);
+    put([323, 4, spec.tile.height]);
+    put([324, 4, stripAt]);
+    put([325, 4, spec.strips.map((s) => s.length)]);
+  } else {
+    put([273, 4, stripAt]);
+    put([278, 4, spec.rowsPerStrip ?? spec.height]);
+    put([279, 4, spec.strips.map((s) => s.length)]);
+  }
   if (text) put([270, 2, '']);
   for (const e of spec.extra ?? []) put(e);
   const entries = [...byTag.values()].sort((a, b) => a[0] - b[0]);

@@ -25,6 +25,23 @@ const IMAGES = new URL('../../fixtures/images/', import.meta.url);
 const cells = synthesize({ pattern: 'walls', cells: 30, width: 96, height: 80, order: 'random', seed: 11, window: true }).image;
 const cellsRgba = new Uint8Array(96 * 80 * 4).map((_, i) => (i % 4 === 3 ? 255 : cells.data[i >> 2]!));
 
+/** The micrograph cut into four 64 x 64 tiles (row by row, padded with 0 past the page), each zlib'd. */
+function tiles64(): Uint8Array[] {
+  const out: Uint8Array[] = [];
+  for (let ty = 0; ty < 2; ty++) {
+    for (let tx = 0; tx < 2; tx++) {
+      const t = new Uint8Array(64 * 64);
+      for (let y = 0; y < 64; y++) for (let x = 0; x < 64; x++) {
+        const X = tx * 64 + x;
+        const Y = ty * 64 + y;
+        if (X < 96 && Y < 80) t[y * 64 + x] = cells.data[Y * 96 + X]!;
+      }
+      out.push(zlibSync(t));
+    }
+  }
+  return out;
+}
+
 /**
  * Seeds of each kind: small valid files written by libtiff and ImageMagick (test/fixtures/images/make.sh),
  * and the generator's micrograph written by our PNG encoder, jpeg-js and as a Deflate TIFF.
@@ -41,6 +58,7 @@ export const SEEDS: Record<'png' | 'jpeg' | 'tiff' | 'csv', { name: string; byte
   tiff: [
     ...['grey8-lzw.tif', 'grey8-deflate.tif', 'grey8-packbits.tif', 'grey16-tiles-deflate.tif', 'multipage.tif', 'ome-nm.tif', 'res-inch.tif'].map(fixture),
     { name: 'cells.tif', bytes: tiffFile({ width: 96, height: 80, compression: 8, rowsPerStrip: 16, strips: [0, 1, 2, 3, 4].map((k) => zlibSync(cells.data.subarray(k * 16 * 96, (k + 1) * 16 * 96) as Uint8Array)) }).bytes },
+    { name: 'cells-tiles.tif', bytes: tiffFile({ width: 96, height: 80, compression: 8, tile: { width: 64, height: 64 }, strips: tiles64() }).bytes },
   ],
   csv: [
     { name: 'points.csv', bytes: new TextEncoder().encode('x,y\n12,30\n40,8\n33,44\n70,21\n55,60\n18,70\n81,77\n64,40\n') },
