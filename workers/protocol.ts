@@ -10,12 +10,6 @@ import type { EditOp } from '../src/core/edit/labels';
 /** Progress report from the worker: stage name and fraction done in [0, 1]. */
 export type ProgressFn = (stage: string, fraction: number) => void;
 
-/** An error that crossed the worker boundary as plain data (class instances do not survive cloning). */
-export interface WireError {
-  kind: string;
-  message: string;
-}
-
 /** What opening an image gives the page: its size, tags and a display bitmap. */
 export interface OpenResult {
   id: string;

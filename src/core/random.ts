@@ -31,19 +31,6 @@ export function normal(rng: Rng): number {
   return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
 }
 
-/** A Poisson deviate with mean `mean` (Knuth's method for small means, normal approximation above 500). */
-export function poisson(rng: Rng, mean: number): number {
-  if (mean > 500) return Math.max(0, Math.round(mean + Math.sqrt(mean) * normal(rng)));
-  const L = Math.exp(-mean);
-  let k = 0;
-  let p = 1;
-  do {
-    k++;
-    p *= rng();
-  } while (p > L);
-  return k - 1;
-}
-
 /** Derives an independent seed for replicate `i` of a run seeded with `seed`. */
 export function subSeed(seed: number, i: number): number {
   let h = (seed ^ 0x9e3779b9) >>> 0;

@@ -7,7 +7,7 @@ import jStatModule from 'jstat';
 
 interface JStatLike {
   chisquare: { cdf(x: number, dof: number): number };
-  gamma: { cdf(x: number, shape: number, scale: number): number; pdf(x: number, shape: number, scale: number): number };
+  gamma: { cdf(x: number, shape: number, scale: number): number };
   normal: { cdf(x: number, mean: number, sd: number): number };
 }
 const jStat = jStatModule as unknown as JStatLike;
@@ -27,11 +27,6 @@ export function chiSquareLower(x: number, dof: number): number {
 /** CDF of the gamma law with the given shape and rate (scale = 1 / rate). */
 export function gammaCdf(x: number, shape: number, rate: number): number {
   return x <= 0 ? 0 : jStat.gamma.cdf(x, shape, 1 / rate);
-}
-
-/** Density of the gamma law with the given shape and rate. */
-export function gammaPdf(x: number, shape: number, rate: number): number {
-  return x <= 0 ? 0 : jStat.gamma.pdf(x, shape, 1 / rate);
 }
 
 /** Two-sided normal p-value of a z score. */
