@@ -5,6 +5,7 @@
 import { Delaunay } from 'd3-delaunay';
 import { DegeneratePointsError, SettingsError, TooFewCellsError } from '../errors';
 import type { Rect } from '../types';
+import { clipToRect, polygonMeasures } from './polygon';
 import type { Tessellation } from './types';
 
 export type { Tessellation } from './types';
@@ -354,7 +355,7 @@ export class Tessellator {
             scratch.push(cc[2 * t]!, cc[2 * t + 1]!);
             e = halfedges[e % 3 === 2 ? e - 2 : e + 1]!;
           } while (e !== e0);
-          clipToBox(scratch, spare, Wn, Hn);
+          clipToRect(scratch, spare, 0, 0, Wn, Hn);
         } else {
           voronoi.renderCell(k, ctx);
         }
@@ -479,88 +480,6 @@ function distinctCount(points: Float64Array): number {
   const seen = new Set<string>();
   for (let i = 0; i < points.length; i += 2) seen.add(`${points[i]},${points[i + 1]}`);
   return seen.size;
-}
-
-/** Area, perimeter, centroid and bounding box of polygon data[start..end) into slot i (normalised units). */
-function polygonMeasures(
-  data: Float64Array, start: number, end: number, i: number,
-  area: Float64Array, perimeter: Float64Array, centroid: Float64Array, bbox: Float64Array,
-): void {
-  // Coordinates relative to the first vertex keep the shoelace sums free of cancellation.
-  const ox = data[start]!;
-  const oy = data[start + 1]!;
-  let a2 = 0;
-  let cx = 0;
-  let cy = 0;
-  let per = 0;
-  let minx = ox;
-  let maxx = ox;
-  let miny = oy;
-  let maxy = oy;
-  let px = data[end - 2]! - ox;
-  let py = data[end - 1]! - oy;
-  for (let k = start; k < end; k += 2) {
-    const X = data[k]!;
-    const Y = data[k + 1]!;
-    if (X < minx) minx = X;
-    if (X > maxx) maxx = X;
-    if (Y < miny) miny = Y;
-    if (Y > maxy) maxy = Y;
-    const x = X - ox;
-    const y = Y - oy;
-    const cr = px * y - x * py;
-    a2 += cr;
-    cx += (px + x) * cr;
-    cy += (py + y) * cr;
-    const ddx = x - px;
-    const ddy = y - py;
-    per += Math.sqrt(ddx * ddx + ddy * ddy);
-    px = x;
-    py = y;
-  }
-  area[i] = Math.abs(a2) / 2;
-  perimeter[i] = per;
-  centroid[2 * i] = a2 !== 0 ? ox + cx / (3 * a2) : ox;
-  centroid[2 * i + 1] = a2 !== 0 ? oy + cy / (3 * a2) : oy;
-  bbox[4 * i] = minx;
-  bbox[4 * i + 1] = miny;
-  bbox[4 * i + 2] = maxx;
-  bbox[4 * i + 3] = maxy;
-}
-
-/**
- * Clips the convex polygon in `poly` (flat x, y) to [0, W] x [0, H] in place, by Sutherland–Hodgman
- * (Sutherland & Hodgman 1974, Comm. ACM 17:32; pub, memory). Crossings get the bound as exact coordinate.
- */
-function clipToBox(poly: number[], tmp: number[], W: number, H: number): void {
-  clipHalf(poly, tmp, 0, 0, 1);
-  clipHalf(tmp, poly, 0, W, -1);
-  clipHalf(poly, tmp, 1, 0, 1);
-  clipHalf(tmp, poly, 1, H, -1);
-}
-
-/** Keeps the part of src with sign·(coord[axis] − c) ≥ 0, into dst. */
-function clipHalf(src: number[], dst: number[], axis: 0 | 1, c: number, sign: 1 | -1): void {
-  dst.length = 0;
-  const m = src.length / 2;
-  if (m === 0) return;
-  let ax = src[2 * m - 2]!;
-  let ay = src[2 * m - 1]!;
-  let da = sign * ((axis === 0 ? ax : ay) - c);
-  for (let j = 0; j < m; j++) {
-    const bx = src[2 * j]!;
-    const by = src[2 * j + 1]!;
-    const db = sign * ((axis === 0 ? bx : by) - c);
-    if ((da >= 0) !== (db >= 0)) {
-      const t = da / (da - db);
-      if (axis === 0) dst.push(c, ay + t * (by - ay));
-      else dst.push(ax + t * (bx - ax), c);
-    }
-    if (db >= 0) dst.push(bx, by);
-    ax = bx;
-    ay = by;
-    da = db;
-  }
 }
 
 /**
