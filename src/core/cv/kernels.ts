@@ -274,14 +274,3 @@ export function distanceTransform(cv: CV, mask: Uint8Array, width: number, heigh
     return new Float32Array(dst.data32F as Float32Array);
   });
 }
-
-/** Grey dilation (maximum filter) of a float image over a disc of radius r px. */
-export function maxFilter(cv: CV, img: Float32Array, width: number, height: number, r: number): Float32Array {
-  return withMats((track) => {
-    const src = track(matFromArray(cv, height, width, cv.CV_32FC1, img));
-    const dst = track(new cv.Mat());
-    const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * r + 1, 2 * r + 1)));
-    cv.dilate(src, dst, k, new cv.Point(-1, -1), 1, cv.BORDER_REPLICATE);
-    return new Float32Array(dst.data32F as Float32Array);
-  });
-}
