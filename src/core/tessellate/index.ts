@@ -1,6 +1,10 @@
 /**
  * The Voronoi tessellation of a point set clipped to a rectangular field, with its Delaunay dual and
  * neighbour graph, on d3-delaunay. One pass per cell, typed outputs allocated once.
+ *
+ * Over 500 lines on purpose: the Tessellator's run, its cell walk, the radial order and the reuse of its
+ * typed arrays from run to run share private state that the Monte Carlo loop depends on for speed; split
+ * into modules, that state would have to be exposed or passed around on every call.
  */
 import { Delaunay } from 'd3-delaunay';
 import { DegeneratePointsError } from '../errors';
