@@ -23,7 +23,8 @@ import { resolveSettings, type Settings, type SettingsInput } from './settings';
 import { buildSummary, type CalibrationSource, type EventsSummary, type GrainSizeSummary, type SegmentInfo } from './summary';
 import { tessellate } from './tessellate/index';
 import type { Tessellation } from './tessellate/types';
-import type { GreyImage, LabelImage, Progress, Rect } from './types';
+import type { Columns, GreyImage, LabelImage, Progress, Rect } from './types';
+import { anisotropy, type Anisotropy } from './stats/anisotropy';
 
 export type AnalyzeInput =
   | { kind: 'image'; image: GreyImage; name?: string }
@@ -252,6 +253,13 @@ async function measureLabels(
     };
     const columns = measureColumns(ctx, settings.pattern);
     check(opts.signal);
+    // Aligned, elongated cells: the spacing statistics and their reference move to the stretched field.
+    const aniso = cellAnisotropy(columns, sums.edge, settings.reference.alpha);
+    if (aniso.spacing === 'stretched' && reference) {
+      reference.cancel();
+      const s = aniso.stretch!;
+      reference = startReferenceFor(settings, n, { x0: field.x0 * s.sx, y0: field.y0 * s.sy, x1: field.x1 * s.sx, y1: field.y1 * s.sy }, segment?.minCellAreaPx, opts);
+    }
     await reference?.tick();
     // Grain size before the statistics, so that it runs while the pool is drawing the reference.
     let grain: GrainSizeResult | null = null;
@@ -282,6 +290,7 @@ async function measureLabels(
       neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
       minCellAreaPx: segment?.minCellAreaPx,
       solidity: columns.solidity ?? null,
+      anisotropy: aniso,
     });
     const summary = buildSummary({
       settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts),
@@ -294,6 +303,12 @@ async function measureLabels(
     reference?.cancel();
     throw e;
   }
+}
+
+/** Anisotropy of the interior cells from the measurement columns (any length unit: only ratios matter). */
+function cellAnisotropy(columns: Columns, edge: Uint8Array, alpha: number): Anisotropy {
+  const col = (prefix: string) => columns[Object.keys(columns).find((k) => k.startsWith(prefix))!]!;
+  return anisotropy(col('major_axis_'), col('minor_axis_'), columns.orientation_deg!, (i) => edge[i] === 0, alpha);
 }
 
 /**

@@ -11,6 +11,7 @@ import type { ResolvedPixelSize } from './image/calibration';
 import type { PatternKind, Settings } from './settings';
 import type { RandomnessResult, TestRow, Verdict } from './stats/randomness';
 import type { Quality } from './stats/quality';
+import type { Anisotropy } from './stats/anisotropy';
 import type { ReferenceSummary } from './reference/summary';
 import type { EventsDispersion } from './stats/events';
 import type { Rect } from './types';
@@ -131,6 +132,8 @@ export interface Summary {
     warnings: string[];
   };
   clarkEvans: RandomnessResult['clarkEvans'];
+  /** Orientation order and elongation of the cells, and what the spacing statistics did about them (null for points). */
+  anisotropy: Anisotropy | null;
   /** Centre and radius of the largest empty circle among the centroids (summary units), or null. */
   largestGap: { x: number; y: number; radius: number; cell: number } | null;
   lewis: { fit: LineFitJson; referenceSlopeMean: number | null };
@@ -198,6 +201,7 @@ export function buildSummary(inp: SummaryInput): Summary {
     },
     randomness: { verdict: r.verdict, verdictText: r.verdictText, alpha: r.alpha, basis: r.basis, tests: r.tests, reference: r.reference, warnings: r.warnings },
     clarkEvans: r.clarkEvans,
+    anisotropy: r.anisotropy,
     largestGap: g ? { x: g.x * k, y: g.y * k, radius: g.radius * k, cell: g.cell } : null,
     lewis: { fit: r.lewis.fit, referenceSlopeMean: r.lewis.reference.slopeMean },
     aboavWeaire: { a: r.aboavWeaire.a, fit: r.aboavWeaire.fit, referenceAMean: r.aboavWeaire.reference.aMean },

@@ -14,6 +14,7 @@ import { STATISTICS, type PatternCurves, type PatternFigures, type StatisticKey 
 import { chiSquareUpper, gammaPdf, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';
 import { assessQuality, type Quality } from './quality';
+import { stretchPoints, type Anisotropy } from './anisotropy';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
 import {
   MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, type CellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
@@ -65,6 +66,8 @@ export interface RandomnessInput {
   solidity?: ArrayLike<number> | null;
   /** Notices of earlier stages for the quality block (they do not fail it). */
   notices?: string[];
+  /** Anisotropy of the cells (walls): aligned elongated cells move the spacing statistics to a stretched frame. */
+  anisotropy?: Anisotropy | null;
 }
 
 /** The minimum cell area (px²) the observation used: the segmentation's, else settings.minCellAreaPx for images, else 0. */
@@ -112,6 +115,8 @@ export interface TestRow {
 export interface RandomnessResult {
   /** The check before the verdict: when not ok, the verdict is null ("not rated") with the reason. */
   quality: Quality;
+  /** Anisotropy of the cells, or null where it was not measured (points). */
+  anisotropy: Anisotropy | null;
   verdict: Verdict | null;
   /** The verdict with the statistic and p-value behind it, or why there is none. */
   verdictText: string;
@@ -182,6 +187,11 @@ export function monteCarloP(t: number, values: ArrayLike<number>, tail: 'two' | 
   if (!R) return null;
   if (tail === 'upper') return (1 + ge) / (R + 1);
   return Math.min(1, (2 * Math.min(1 + ge, 1 + le)) / (R + 1));
+}
+
+/** The field scaled by a stretch (the field itself without one). */
+function stretchedField(f: Rect, s: { sx: number; sy: number } | null): Rect {
+  return s ? { x0: f.x0 * s.sx, y0: f.y0 * s.sy, x1: f.x1 * s.sx, y1: f.y1 * s.sy } : f;
 }
 
 /** Number of the sample's cells with n sides, n = 0..MAX_SIDES (the last bin holds MAX_SIDES or more). */
@@ -280,9 +290,13 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const bbox = input.bbox ?? t.bbox;
   const graph = input.neighbours ?? { offsets: t.neighbourOffsets, index: t.neighbourIndex };
 
+  // Spacing statistics: in the frame where the mean cell is round when the cells are aligned and elongated.
+  const stretch = input.anisotropy?.spacing === 'stretched' ? input.anisotropy.stretch : null;
+  const spacingField = stretchedField(field, stretch);
+  const spacingPoints = stretch ? stretchPoints(t.points, stretch) : t.points;
   let ref: Reference | null = input.reference ?? null;
   if (!ref) {
-    const refOpts = referenceOptionsFor(settings, n, field, input.minCellAreaPx);
+    const refOpts = referenceOptionsFor(settings, n, spacingField, input.minCellAreaPx);
     if (!refOpts) {
       warnings.push('No random-seeding reference was drawn (reference.replicates is 0); only the published constants are shown. Set replicates to 199 for tests.');
     } else if (input.referenceError !== undefined) {
@@ -312,12 +326,18 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   }
   const ss = m > 0 ? sideStats(sides, sample) : null;
   const as = m > 0 ? areaStats(area, sample) : null;
-  const pts = t.points;
-  // The tessellation is that of these very points, so its neighbour graph holds every nearest neighbour.
-  const ce = clarkEvans(pts, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex });
-  if (pts.length / 2 < 2) warnings.push('Clark–Evans and the L-function need at least 2 points.');
-  const radii = ref ? ref.lRadii : lRadii(n, field);
-  const L = lFunction(pts, field, radii);
+  // The tessellation is that of these very points, so its neighbour graph holds every nearest neighbour
+  // (not so for stretched points: there the grid search finds them).
+  const ce = stretch ? clarkEvans(spacingPoints, spacingField) : clarkEvans(spacingPoints, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex });
+  if (spacingPoints.length / 2 < 2) warnings.push('Clark–Evans and the L-function need at least 2 points.');
+  const radii = ref ? ref.lRadii : lRadii(n, spacingField);
+  const L = lFunction(spacingPoints, spacingField, radii);
+  const an = input.anisotropy ?? null;
+  if (an?.spacing === 'stretched') {
+    warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}, direction ${an.directionDeg!.toFixed(0)}°) and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function are computed with x scaled by ${stretch!.sx.toFixed(3)} and y by ${stretch!.sy.toFixed(3)}, which makes the mean cell round, against random seeding in the same stretched field.`);
+  } else if (an?.spacing === 'left out') {
+    warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}) at ${an.directionDeg!.toFixed(0)}°, away from the image axes, and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function assume an isotropic pattern and are left out of the verdict. Rotate the image so that the cells lie along an axis to include them.`);
+  }
   const lewis = m > 0 && as ? lewisLaw(sides, area, sample, as.mean) : null;
   const aw = m > 0 ? aboavWeaireLaw(sides, edge, graph.offsets, graph.index, sample) : null;
   if (enough && lewis && !Number.isFinite(lewis.fit.slope)) warnings.push(`Lewis's law needs at least 2 side classes with ${3} or more cells.`);
@@ -355,7 +375,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   let strongest: string | null = null;
   const regularOnes: string[] = [];
   const irregularOnes: string[] = [];
-  const used = STATISTICS.filter((s) => s.verdict && Number.isFinite(obs[s.key]));
+  const used = STATISTICS.filter((s) => s.verdict && Number.isFinite(obs[s.key]) && !(an?.spacing === 'left out' && 'spacing' in s));
   const quality = assessQuality(input.solidity ?? null, enough && as ? as.cv : null, input.notices);
   if (!quality.ok) {
     verdictText = `Not rated: ${quality.warnings[0]}`;
@@ -420,6 +440,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
 
   return {
     quality,
+    anisotropy: an,
     verdict,
     verdictText,
     alpha,
