@@ -5,7 +5,7 @@
  */
 import { cellOutlines, type Polygons } from './cv/contours';
 import { loadCv } from './cv/index';
-import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TessellabError, TooFewCellsError, describeError } from './errors';
+import { CancelledError, ImageTooLargeError, ImageTooSmallError, NoCellsError, SettingsError, TessellabError, describeError } from './errors';
 import { grainSize, grainSizeSummary } from './grain/index';
 import type { GrainSizeResult } from './grain/types';
 import { assignEvents, eventsDispersion } from './stats/events';
@@ -200,9 +200,9 @@ async function measureLabels(
 ): Promise<Analysis> {
   const progress = opts.onProgress ?? (() => {});
   progress('measure', 0);
-  if (labels.count < 3) {
+  if (labels.count < 1) {
     early?.cancel();
-    throw new TooFewCellsError(`Only ${labels.count} cell${labels.count === 1 ? '' : 's'} found; the tessellation needs at least 3. Check the pattern kind and threshold, or use a larger field.`);
+    throw new NoCellsError('No cells found. Check the pattern kind (walls or bodies) and the threshold, or use a larger field.');
   }
   // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile
   // (from the segmentation's flood on, when that told the count; it is started afresh should they differ).
@@ -374,7 +374,7 @@ async function analyzePoints(points: Float64Array, width: number, height: number
   }
   const field = settings.field ? { ...settings.field } : { x0: 0, y0: 0, x1: width, y1: height };
   const n = pts.length / 2;
-  if (n < 3) throw new TooFewCellsError(`Only ${n} point${n === 1 ? '' : 's'}; the tessellation needs at least 3.`);
+  if (n < 1) throw new NoCellsError('The point set is empty; give at least one x, y pair.');
   const reference = startReferenceFor(settings, n, field, undefined, opts);
   const progress = opts.onProgress ?? (() => {});
   try {

@@ -86,7 +86,8 @@ function referenceLayoutOf(settings: Settings): ReferenceLayout {
  * when the settings ask for no reference (replicates 0).
  */
 export function referenceOptionsFor(settings: Settings, cells: number, field: Rect, minCellAreaPx?: number): ReferenceOptions | null {
-  if (settings.reference.replicates < 1) return null;
+  // Fewer cells than the verdict needs: a reference could not change the answer.
+  if (settings.reference.replicates < 1 || cells < MIN_INTERIOR_CELLS) return null;
   return {
     cells, field, replicates: settings.reference.replicates, seed: settings.reference.seed, edgeRule: settings.edgeRule,
     minCellAreaPx: observedMinArea(settings, minCellAreaPx), layout: referenceLayoutOf(settings),
@@ -297,7 +298,9 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   let ref: Reference | null = input.reference ?? null;
   if (!ref) {
     const refOpts = referenceOptionsFor(settings, n, spacingField, input.minCellAreaPx);
-    if (!refOpts) {
+    if (!refOpts && n < MIN_INTERIOR_CELLS) {
+      warnings.push(`No random-seeding reference was drawn: ${n} cell${n === 1 ? '' : 's'} cannot be compared with random seeding (the comparison needs at least ${MIN_INTERIOR_CELLS}).`);
+    } else if (!refOpts) {
       warnings.push('No random-seeding reference was drawn (reference.replicates is 0); only the published constants are shown. Set replicates to 199 for tests.');
     } else if (input.referenceError !== undefined) {
       warnings.push(`The random-seeding reference could not be drawn: ${input.referenceError}`);

@@ -11,6 +11,7 @@ import { DegeneratePointsError } from '../errors';
 import type { Rect } from '../types';
 import { mayBeFlat, refuseDegenerate, validatePoints } from './checks';
 import { clipToRect, polygonMeasures } from './polygon';
+import { tessellateFew } from './few';
 import type { Tessellation } from './types';
 
 export type { Tessellation } from './types';
@@ -70,6 +71,8 @@ class Buffer64 {
  *   outside points; SettingsError an empty field
  */
 export function tessellate(points: Float64Array, field: Rect): Tessellation {
+  // One or two points: nothing to triangulate, the field is split directly.
+  if (points.length === 2 || points.length === 4) return tessellateFew(points, field);
   return new Tessellator(false).run(points, field, 'polygons') as Tessellation;
 }
 
