@@ -48,7 +48,7 @@ describe('verdicts on synthetic patterns (the test keeps its size and has power)
       if (r.verdict === 'consistent with random seeding') consistent++;
     }
     expect(consistent).toBeGreaterThanOrEqual(90);
-  }, 60000);
+  });
   it('hard-core seeding: "more regular than random"', () => {
     for (let k = 0; k < 5; k++) expect(analyse('regular', 300, 400, 400, 2000 + k, settings(99, 5 + k)).verdict).toBe('more regular than random');
   });
