@@ -39,6 +39,8 @@ export default defineConfig({
     // machine, and no test sets a limit of its own (speed is measured by the benchmark, never asserted).
     testTimeout: 1_800_000,
     hookTimeout: 1_800_000,
+    // expect.poll keeps polling until its assertion holds, up to the same guard (its own default is 1 s).
+    expect: { poll: { timeout: 1_800_000 } },
     pool: 'forks',
   },
 });
