@@ -74,7 +74,7 @@ describe('randomness result', () => {
     expect(j.reference.interiorCellsTotal / j.reference.statistics.interiorCells.mean).toBeCloseTo(39, 3);
     // The settings' seed is the one drawn from: another seed gives another reference.
     const other = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(39, 4) });
-    expect((other.reference as { statistics: { mu2: { mean: number } } }).statistics.mu2.mean).not.toBe(j.reference.statistics.mu2.mean);
+    expect(other.reference!.statistics['mu2']!.mean).not.toBe(j.reference.statistics.mu2.mean);
     expect(j.sides.reference).toHaveLength(21);
     expect(typeof j.clarkEvans.R).toBe('number');
     expect(typeof j.largestGap.radius).toBe('number');
