@@ -125,8 +125,17 @@ describe('randomness: bad input', () => {
     const r = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(9, 1) });
     expect(r.warnings.join(' ')).toMatch(/smallest Monte Carlo p-value is 0\.100, above α = 0\.05/);
   });
-  it('a field too small for a reference: the reference error is reported, the observed statistics kept', () => {
+  it('too few cells for a reference: none is drawn, the reason is given, the observed statistics kept', () => {
     const t = tessellate(Float64Array.from([1, 1, 9, 2, 5, 9, 2, 7]), { x0: 0, y0: 0, x1: 10, y1: 10 });
+    const r = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(19, 1) });
+    expect(r.reference).toBeNull();
+    expect(r.warnings.join(' ')).toMatch(/4 cells cannot be compared with random seeding/);
+    expect(r.largestGap).not.toBeNull();
+  });
+  it('a field too small for a reference: the reference error is reported, the observed statistics kept', () => {
+    // 12 cells in a strip 240 x 3 px: every cell of every replicate touches the border.
+    const pts = Float64Array.from({ length: 24 }, (_, i) => (i % 2 ? 1 + (i % 3) * 0.5 : 10 + 20 * (i / 2)));
+    const t = tessellate(pts, { x0: 0, y0: 0, x1: 240, y1: 3 });
     const r = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(19, 1) });
     expect(r.warnings.join(' ')).toMatch(/reference could not be drawn: .*interior cell/);
     expect(r.largestGap).not.toBeNull();
