@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { randomness, monteCarloP, combinedMaxZ, MIN_INTERIOR_CELLS } from '../../../src/core/stats';
+import { mulberry32, normal } from '../../../src/core/random';
 import { tessellate } from '../../../src/core/tessellate';
 import { seedPoints } from '../../../src/core/synth/seeds';
 import { defaultSettings, type Settings } from '../../../src/core/settings';
@@ -36,6 +37,24 @@ describe('Monte Carlo p-values', () => {
     expect(c.strongest).toBe(0);
     const mid = combinedMaxZ([0, 0], [r1, r2])!;
     expect(mid.p).toBeGreaterThan(0.9);
+  });
+  it('the agreement of several statistics that each depart a little in the same direction carries the test (derived: under H0 the sum of three independent standard normals has sd √3)', () => {
+    // 199 replicates of three independent standard normals (Box–Muller on a fixed sequence).
+    const rnd = mulberry32(42);
+    const reps = [0, 1, 2].map(() => Array.from({ length: 199 }, () => normal(rnd)));
+    // Each observed statistic 2 sd towards "regular" (the first two regular when low, the third when high).
+    const obs = [-2, -2, 2];
+    const signs = [-1, -1, 1];
+    const maxOnly = combinedMaxZ(obs, reps)!;
+    const both = combinedMaxZ(obs, reps, signs)!;
+    // max |z| = 2 is exceeded by about 1 − (1 − 0.0455)³ ≈ 13 % of null patterns; the agreement 6/√3 ≈ 3.5 sd by fewer than 1 %.
+    expect(maxOnly.p).toBeGreaterThan(0.05);
+    expect(both.p).toBeLessThan(0.02);
+    expect(both.byAgreement).toBe(true);
+    expect(both.agreement!).toBeGreaterThan(3);
+    // Disagreeing statistics cancel in the agreement: no gain over the maximum alone.
+    const mixed = combinedMaxZ([-2, 2, 2], reps, signs)!;
+    expect(mixed.byAgreement).toBe(false);
   });
 });
 
