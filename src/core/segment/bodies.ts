@@ -31,10 +31,13 @@ import { autoFlattenRadius, autoMinArea, type SegmentResult } from './walls';
 /** Which phase holds the bodies, and the cue that decided it. */
 export interface BodyPolarity {
   polarity: 'bright' | 'dark';
-  /** 'border': the background holds most of the image border; 'connected': the border is shared, and the
+  /**
+   * 'border': the background holds most of the image border; 'connected': the border is shared, and the
    * background is the phase that forms one connected region; 'area': neither decides, the bodies are the
-   * smaller phase. */
-  cue: 'border' | 'connected' | 'area';
+   * smaller phase; 'ring': the phase those cues chose forms rings (a halo, a bubble's wall), and the bodies
+   * are what the rings enclose.
+   */
+  cue: 'border' | 'connected' | 'area' | 'ring';
 }
 
 /**
@@ -48,16 +51,34 @@ const CUSP_ANGLE_DEG = 100;
 const BORDER_DECIDES = 0.2;
 /** A difference in connectedness this large decides the polarity when the border does not. */
 const CONNECTED_DECIDES = 0.2;
+/** A phase whose holes make up this share of it with its holes filled forms rings, not bodies. */
+const RING_SHARE = 0.3;
 
 /**
  * Which phase is the background: the one that holds most of the image border (bodies lie inside the field,
  * the background surrounds them); when the border is shared (dense bodies that reach the border all round),
  * the one whose largest connected region holds the greater share of its area (the background is one
  * matrix, the bodies are many pieces); when that too is close, the larger phase (bodies are the minority).
+ * Should the phase so chosen for the bodies form rings around the other phase (a dark halo round a bright
+ * cell, the walls of bubbles: at least RING_SHARE of it with its holes filled is holes), the bodies are the
+ * other phase's pieces enclosed by the rings (see bodyMasks).
  *
  * @param bright 1 = bright phase, row-major
  */
 export function bodyPolarity(cv: CV, bright: Uint8Array, width: number, height: number): BodyPolarity {
+  const choice = phaseCue(cv, bright, width, height);
+  const ring = new Uint8Array(bright.length);
+  const v = choice.polarity === 'bright' ? 1 : 0;
+  let area = 0;
+  for (let i = 0; i < bright.length; i++) area += ring[i] = bright[i] === v ? 1 : 0;
+  let enclosed = 0;
+  for (const x of holesOf(cv, ring, width, height)) enclosed += x;
+  if (enclosed >= RING_SHARE * (enclosed + area)) return { polarity: choice.polarity === 'bright' ? 'dark' : 'bright', cue: 'ring' };
+  return choice;
+}
+
+/** The border, connectedness and area cues of bodyPolarity. */
+function phaseCue(cv: CV, bright: Uint8Array, width: number, height: number): BodyPolarity {
   let onBorder = 0;
   let brightOnBorder = 0;
   const edge = (i: number): void => {
@@ -83,6 +104,33 @@ export function bodyPolarity(cv: CV, bright: Uint8Array, width: number, height: 
   return { polarity: nBright <= nDark ? 'bright' : 'dark', cue: 'area' };
 }
 
+/**
+ * The bodies and the background of a thresholded image for a polarity: the bodies are the polarity's phase
+ * and the background the other, or, when the bodies are enclosed by rings (cue 'ring'), the bodies are the
+ * polarity's pieces inside the rings and the background its pieces outside them (the rings are neither).
+ */
+export function bodyMasks(cv: CV, bright: Uint8Array, width: number, height: number, p: BodyPolarity): { bodies: Uint8Array; background: Uint8Array } {
+  const v = p.polarity === 'bright' ? 1 : 0;
+  const bodies = new Uint8Array(bright.length);
+  const background = new Uint8Array(bright.length);
+  if (p.cue !== 'ring') {
+    for (let i = 0; i < bright.length; i++) {
+      bodies[i] = bright[i] === v ? 1 : 0;
+      background[i] = 1 - bodies[i]!;
+    }
+    return { bodies, background };
+  }
+  const ring = new Uint8Array(bright.length);
+  for (let i = 0; i < bright.length; i++) ring[i] = bright[i] === v ? 0 : 1;
+  const inside = holesOf(cv, ring, width, height);
+  for (let i = 0; i < bright.length; i++) {
+    if (ring[i]) continue;
+    if (inside[i]) bodies[i] = 1;
+    else background[i] = 1;
+  }
+  return { bodies, background };
+}
+
 /** Segments a bodies pattern. */
 export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): SegmentResult {
   const { width: w, height: h } = img;
@@ -91,18 +139,19 @@ export function segmentBodies(cv: CV, img: GreyImage, settings: Settings): Segme
   // 1. First look: flattened as the walls pattern is, to decide the polarity and find the background.
   const look = prepareGrey(cv, img, { flattenRadiusPx: flatten, smoothSigmaPx: s.smoothSigmaPx });
   const first = thresholdPrepared(cv, look, w, h, s, 'bodies');
-  let polarity: 'bright' | 'dark' = s.polarity === 'auto' ? bodyPolarity(cv, first.bright, w, h).polarity : s.polarity;
+  const chosen = (bright: Uint8Array): BodyPolarity => (s.polarity === 'auto' ? bodyPolarity(cv, bright, w, h) : { polarity: s.polarity, cue: 'border' });
   // 2. Flatten with the background as the mask (away from the bodies' blurred edges), threshold again.
-  const background = new Uint8Array(w * h);
-  const bgValue = polarity === 'bright' ? 0 : 1;
-  for (let i = 0; i < background.length; i++) background[i] = first.bright[i] === bgValue ? 1 : 0;
+  const { background } = bodyMasks(cv, first.bright, w, h, chosen(first.bright));
   const eroded = erodeMask(cv, background, w, h, 2);
-  let any = 0;
-  for (let i = 0; i < eroded.length && !any; i++) any = eroded[i]!;
-  const prepared = prepareGrey(cv, img, { flattenRadiusPx: flatten, smoothSigmaPx: s.smoothSigmaPx, backgroundMask: any ? eroded : background, flattenBy: 'subtract' });
-  const { bright: mask, level: threshold } = thresholdPrepared(cv, prepared, w, h, s, 'bodies');
-  if (s.polarity === 'auto') polarity = bodyPolarity(cv, mask, w, h).polarity;
-  if (polarity === 'dark') for (let i = 0; i < mask.length; i++) mask[i] = 1 - mask[i]!;
+  const bgMask = eroded.includes(1) ? eroded : background.includes(1) ? background : null;
+  const prepared = bgMask
+    ? prepareGrey(cv, img, { flattenRadiusPx: flatten, smoothSigmaPx: s.smoothSigmaPx, backgroundMask: bgMask, flattenBy: 'subtract' })
+    : look;
+  const second = thresholdPrepared(cv, prepared, w, h, s, 'bodies');
+  const threshold = second.level;
+  const choice = chosen(second.bright);
+  const polarity = choice.polarity;
+  const mask = bodyMasks(cv, second.bright, w, h, choice).bodies;
   // Otsu's level sits between the class means, so a body's dim rim can fall below it: grow the bodies by
   // hysteresis. A manual or adaptive threshold is used as it is.
   if (s.threshold === 'otsu') hysteresis(cv, prepared, mask, w, h, threshold, polarity === 'bright');
