@@ -39,7 +39,8 @@ export function concavityDepth(cv: CV, mask: Uint8Array, width: number, height: 
  * turns sharply, the angle between the outline `CUSP_ARM` px before and after the corner being at most
  * `maxAngleDeg`. A gap enclosed by touching bodies narrows to such a corner at each neck (its sides are the
  * bodies' outlines, bulging into it or straight); a roundish dark spot inside one body has none (every hull
- * corner of a disc of radius 3 px or more turns by less than 60°, an angle of 120° or more).
+ * corner of a disc of radius 3 px or more turns by less than 60°, an angle of 120° or more). A hole too small
+ * to measure an angle on (an outline of fewer than 2·CUSP_ARM + 2 pixels) has none.
  *
  * @param holes 0/1, row-major: 1 = a hole pixel
  * @returns 1 at the cusp pixels (and the outline pixels next to them), 0 elsewhere

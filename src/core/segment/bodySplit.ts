@@ -96,7 +96,7 @@ export function keepConcaveCuts(
 }
 
 /**
- * A cut is kept when it has at least one concave end and no convex one. Its end pixels are grouped into
+ * A cut is kept when it has at least one concave end and no convex one, or no end at all. Its end pixels are grouped into
  * ends (pixels within 2 px of each other). An end where the cut meets the outer outline is concave when an
  * outline pixel within 2 px of it is at least `need` deep, convex otherwise. An end within 2 px of the image
  * border is never convex (the outline is cut off there). An end at an enclosed hole is concave when a cusp
@@ -113,7 +113,9 @@ function cutIsConcave(
   h: number,
   need: number,
 ): boolean {
-  if (ends.length === 0) return false;
+  // A cut that never meets the outside runs from junction to junction inside a packed cluster; the cuts
+  // that reach the outline decide whether the bodies around it stand (refused ones join their regions).
+  if (ends.length === 0) return true;
   // Group the end pixels (Chebyshev distance ≤ 2 joins two pixels).
   const group = new Int32Array(ends.length).fill(-1);
   let groups = 0;
