@@ -52,7 +52,8 @@ export const command: Command = {
     let events: Float64Array | undefined;
     if (a.options.has('events')) {
       const f = a.options.get('events')!;
-      events = parsePointsCsv(await readText(f), { name: basename(f) }).points;
+      // Two events at one spot are two events: duplicates are kept.
+      events = parsePointsCsv(await readText(f), { name: basename(f), duplicates: 'keep' }).points;
     }
     const files = a.positional;
     // Worker threads draw each image's random-seeding reference while the rest of its analysis runs.
@@ -69,6 +70,7 @@ export const command: Command = {
         const bytes = await readBytes(file);
         const size = base.pattern === 'points' && a.options.has('size') ? parseSize(a.options.get('size')!) : null;
         const opened = await openFile(name, bytes, { as: base.pattern === 'points' ? 'points' : 'image', size });
+        if (opened.kind === 'points') for (const w of opened.warnings ?? []) process.stderr.write(`[${i + 1}/${files.length}] warning: ${w}\n`);
         if (opened.kind === 'image' && opened.pages.length > 1) process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${opened.pages.length} pages; analysing the first (use kinetics for a series)\n`);
         const analysis = await analyseFile(opened, base, { events, referencePool, onProgress: (s, f) => f === 0 && say(s) });
         lastSettings = analysis.settings;

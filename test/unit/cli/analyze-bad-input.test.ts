@@ -98,6 +98,20 @@ describe('tessellab analyze: bad input', () => {
     expectOneLine(r.err, 'pts2.csv', /line 4 is missing y/);
   });
 
+  it('a points CSV with duplicated points is analysed, with a warning that says how many were merged', async () => {
+    // 30 distinct points on a jittered 6 x 5 grid (hand-made), then lines 2, 9 and 9 again repeated.
+    const rows: string[] = [];
+    for (let k = 0; k < 30; k++) rows.push(`${10 + (k % 6) * 15 + (k % 4)},${10 + Math.floor(k / 6) * 18 + (k % 3)}`);
+    rows.push(rows[0]!, rows[7]!, rows[7]!);
+    const p = file('dups.csv', `x,y\n${rows.join('\n')}\n`);
+    const out = join(dir, 'o-dups');
+    const r = await run(['analyze', p, '--pattern', 'points', '--size', '100x100', '--out', out]);
+    expect(r.code).toBe(0);
+    expect(r.err).toContain('warning: dups.csv: 3 duplicated points (the same x and y as an earlier line, first at line 32) merged; 30 distinct points of 33 are analysed.');
+    const summary = JSON.parse(readFileSync(join(out, 'dups.summary.json'), 'utf8')) as { cells: { count: number } };
+    expect(summary.cells.count).toBe(30);
+  });
+
   it('two points: analysed, with the reason there is no verdict; no points: one line', async () => {
     const p = file('two.csv', 'x,y\n10,10\n20,20\n');
     const r = await run(['analyze', p, '--pattern', 'points', '--size', '100x100', '--out', join(dir, 'o-two')]);
