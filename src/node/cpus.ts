@@ -104,7 +104,7 @@ export function cgroupDirs(mount: CgroupMount, cgroupPath: string): string[] {
   const dirs: string[] = [];
   let p = posix.normalize(`/${rel}`);
   for (;;) {
-    dirs.push(posix.join(mount.mountPoint, p));
+    dirs.push(p === '/' ? mount.mountPoint : posix.join(mount.mountPoint, p));
     if (p === '/') break;
     p = posix.dirname(p);
   }

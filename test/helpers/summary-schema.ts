@@ -24,3 +24,13 @@ export function expectValidSummaryFiles(dir: string): number {
   for (const f of files) expectValidSummary(JSON.parse(readFileSync(join(dir, f), 'utf8')), f);
   return files.length;
 }
+
+const failedSchema = JSON.parse(readFileSync(new URL('../../docs/failed-summary.schema.json', import.meta.url), 'utf8'));
+const validateFailed = new Ajv({ allErrors: true, strict: false }).compile(failedSchema);
+
+/** Fails the test when `summary` (parsed JSON) does not follow docs/failed-summary.schema.json (an input that failed). */
+export function expectValidFailedSummary(summary: unknown, what = 'summary.json'): void {
+  const ok = validateFailed(JSON.parse(JSON.stringify(summary)));
+  const errors = (validateFailed.errors ?? []).slice(0, 8).map((e) => `${e.instancePath || '/'} ${e.message}${e.params ? ` ${JSON.stringify(e.params)}` : ''}`);
+  expect(ok ? [] : errors, `${what} against docs/failed-summary.schema.json`).toEqual([]);
+}
