@@ -4,6 +4,7 @@
  * Python's standard csv module (an RFC 4180 reader outside the project) when python3 is there.
  */
 import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { analyze } from '../../../src/core/analyze';
 import { summaryTable, summaryTableColumns } from '../../../src/core/export/summaryTable';
@@ -46,6 +47,13 @@ describe('summary.csv of a batch', async () => {
     for (const h of withUnit.filter((x) => /_(um|um2|per_um2)$/.test(x))) expect(header).toContain(h.replace(/um(2?)$/, 'px$1'));
     expect(header.slice(-5)).toEqual(['status', 'error.kind', 'error.message', 'input', 'version']);
     expect(header).toContain('calibration.source');
+  });
+
+  it('docs/names.md lists exactly these columns, in order', () => {
+    const names = readFileSync('docs/names.md', 'utf8');
+    const section = names.slice(names.indexOf('## Columns of summary.csv'));
+    const listed = [...section.slice(0, section.indexOf('A figure with')).matchAll(/`([^`]+)`/g)].map((m) => m[1]);
+    expect(listed).toEqual(header);
   });
 
   it('a calibrated and an uncalibrated image fill the columns of their own unit only, with their own values', () => {
