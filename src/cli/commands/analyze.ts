@@ -29,8 +29,8 @@ import { softwareVersion } from '../../node/version';
 
 const USAGE = [
   'tessellab analyze IMAGE... [--files-from LIST|-] [--shard I/N] [--skip-existing] [--threads N]',
-  '                           [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json]',
-  '                           [--events FILE.csv] [--size WxH (points)]',
+  '                         [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json]',
+  '                         [--events FILE.csv] [--size WxH (points)]',
 ].join('\n');
 
 /** At most this many threads unless --threads asks for more (the reference gains little beyond). */

@@ -37,10 +37,10 @@ async function inProcess(args: string[]): Promise<number> {
 const files = (d: string) => readdirSync(d).filter((f) => !isTemporary(f)).sort();
 
 /**
- * Runs the command line as its own process into `out` and kills it with SIGKILL when the `k`-th temporary
+ * Runs the command line as its own process into `out` and sends it `signal` when the `k`-th temporary
  * file appears. Resolves with how the process ended and the temporary files it had started.
  */
-function killAt(k: number, out: string): Promise<{ signal: NodeJS.Signals | null; code: number | null; started: number }> {
+function killAt(k: number, out: string, signal: NodeJS.Signals = 'SIGKILL'): Promise<{ signal: NodeJS.Signals | null; code: number | null; started: number }> {
   return new Promise((done, fail) => {
     const seen = new Set<string>();
     // GLIBC_TUNABLES set: the launcher runs the command line in its own process (no second start), so the
@@ -53,7 +53,7 @@ function killAt(k: number, out: string): Promise<{ signal: NodeJS.Signals | null
     const watcher = watch(out, (_event, name) => {
       if (!name || !isTemporary(name) || seen.has(name)) return;
       seen.add(name);
-      if (seen.size === k) child.kill('SIGKILL');
+      if (seen.size === k) child.kill(signal);
     });
     child.on('error', fail);
     child.on('exit', (code, signal) => {
@@ -114,4 +114,16 @@ describe('a kill while writing', () => {
       process.stdout.write(`kill at write ${k}: ${r.signal ?? `exit ${r.code}`}, ${fresh} new files, ${left.filter(isTemporary).length} temporary left\n`);
     });
   }
+
+  it('stopped by SIGTERM (a scheduler\'s time limit) while writing: exit 143, no temporary file left, every file whole', async () => {
+    const out = join(dir, 'terminated');
+    cpSync(oldDir, out, { recursive: true });
+    const r = await killAt(2, out, 'SIGTERM');
+    expect(r.code).toBe(128 + 15);
+    expect(readdirSync(out).filter(isTemporary)).toEqual([]);
+    for (const f of files(out)) {
+      const bytes = readFileSync(join(out, f));
+      expect(bytes.equals(readFileSync(join(oldDir, f))) || bytes.equals(readFileSync(join(newDir, f))), f).toBe(true);
+    }
+  });
 });
