@@ -22,7 +22,7 @@ function schemaOf(type, id, title) {
 }
 
 export function summarySchema() {
-  return schemaOf('Summary', 'https://tessellab.invalid/summary.schema.json', 'Tessellab summary.json');
+  return schemaOf('SummaryFile', 'https://tessellab.invalid/summary.schema.json', 'Tessellab summary.json');
 }
 
 export function failedSummarySchema() {

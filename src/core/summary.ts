@@ -145,6 +145,20 @@ export interface Summary {
   grainSize?: GrainSizeSummary;
 }
 
+/**
+ * summary.json as written: the summary, what was analysed and by which version (when the writer knows), and
+ * every setting used, so that any figure can be reproduced from the file alone.
+ */
+export interface SummaryFile extends Summary {
+  /** The input's file name. */
+  image?: string;
+  /** The input's path as it was given (command line). */
+  input?: string;
+  /** The version of Tessellab that wrote the file. */
+  version?: string;
+  settings: Settings;
+}
+
 export interface SummaryInput {
   settings: Settings;
   width: number;

@@ -71,8 +71,9 @@ describe.skipIf(!version)(`the Snakemake workflow (snakemake ${version ?? 'not i
       expect(col(row, 'status')).toBe('analysed');
       for (const kind of ['cells.csv', 'cells.geojson', 'overlay.svg', 'labels.png', 'summary.json']) expect(existsSync(join(out, `${n}.${kind}`)), `${n}.${kind}`).toBe(true);
       // summary.json is the Summary with the file's provenance and the settings beside it.
-      const { image, input, version: v, settings: s, ...summary } = JSON.parse(readFileSync(join(out, `${n}.summary.json`), 'utf8'));
-      expectValidSummary(summary, `${n}.summary.json`);
+      const file = JSON.parse(readFileSync(join(out, `${n}.summary.json`), 'utf8'));
+      expectValidSummary(file, `${n}.summary.json`);
+      const { image, input, version: v, settings: s } = file;
       expect([image, typeof input, typeof v, typeof s]).toEqual([`${n}.png`, 'string', 'string', 'object']);
     }
     expectValidFailedSummary(JSON.parse(readFileSync(join(out, 'corrupt.summary.json'), 'utf8')), 'corrupt.summary.json');

@@ -5,7 +5,8 @@
 import { mkdtempSync, readFileSync, existsSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { expectValidSummaryTree } from '../../helpers/summary-schema';
 import { main } from '../../../src/cli/main';
 import { encodePng } from '../../../src/core/image/encode';
 import { synthesize } from '../../../src/core/synth/index';
@@ -166,4 +167,9 @@ describe('tessellab analyze: bad input', () => {
     const r3 = await run(['analyze', good, '--colour', 'red']);
     expect(r3.err).toMatch(/Unknown option --colour/);
   });
+});
+
+// Every summary.json these runs wrote follows docs/summary.schema.json (or, for a failed input, its own schema).
+afterAll(() => {
+  expect(expectValidSummaryTree(dir)).toBeGreaterThan(0);
 });

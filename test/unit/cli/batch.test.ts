@@ -8,7 +8,8 @@ import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, statSync
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
-import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { expectValidSummaryTree } from '../../helpers/summary-schema';
 import { main } from '../../../src/cli/main';
 import { summaryTableColumns } from '../../../src/core/export/summaryTable';
 import { encodePng } from '../../../src/core/image/encode';
@@ -181,4 +182,9 @@ describe('tessellab merge', () => {
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/Say where summary\.csv goes with --out/);
   });
+});
+
+// Every summary.json these runs wrote follows docs/summary.schema.json (or, for a failed input, its own schema).
+afterAll(() => {
+  expect(expectValidSummaryTree(dir)).toBeGreaterThan(0);
 });
