@@ -5,7 +5,7 @@
  */
 import { cellOutlines, type Polygons } from './cv/contours';
 import { loadCv } from './cv/index';
-import { CancelledError, ImageTooLargeError, ImageTooSmallError, SettingsError, TessellabError, TooFewCellsError, describeError } from './errors';
+import { CancelledError, ImageTooLargeError, ImageTooSmallError, NoCellsError, SettingsError, TessellabError, describeError } from './errors';
 import { grainSize, grainSizeSummary } from './grain/index';
 import type { GrainSizeResult } from './grain/types';
 import { assignEvents, eventsDispersion } from './stats/events';
@@ -23,7 +23,8 @@ import { resolveSettings, type Settings, type SettingsInput } from './settings';
 import { buildSummary, type CalibrationSource, type EventsSummary, type GrainSizeSummary, type SegmentInfo } from './summary';
 import { tessellate } from './tessellate/index';
 import type { Tessellation } from './tessellate/types';
-import type { GreyImage, LabelImage, Progress, Rect } from './types';
+import type { Columns, GreyImage, LabelImage, Progress, Rect } from './types';
+import { anisotropy, type Anisotropy } from './stats/anisotropy';
 
 export type AnalyzeInput =
   | { kind: 'image'; image: GreyImage; name?: string }
@@ -199,9 +200,9 @@ async function measureLabels(
 ): Promise<Analysis> {
   const progress = opts.onProgress ?? (() => {});
   progress('measure', 0);
-  if (labels.count < 3) {
+  if (labels.count < 1) {
     early?.cancel();
-    throw new TooFewCellsError(`Only ${labels.count} cell${labels.count === 1 ? '' : 's'} found; the tessellation needs at least 3. Check the pattern kind and threshold, or use a larger field.`);
+    throw new NoCellsError('No cells found. Check the pattern kind (walls or bodies) and the threshold, or use a larger field.');
   }
   // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile
   // (from the segmentation's flood on, when that told the count; it is started afresh should they differ).
@@ -252,6 +253,13 @@ async function measureLabels(
     };
     const columns = measureColumns(ctx, settings.pattern);
     check(opts.signal);
+    // Aligned, elongated cells: the spacing statistics and their reference move to the stretched field.
+    const aniso = cellAnisotropy(columns, sums.edge, settings.reference.alpha);
+    if (aniso.spacing === 'stretched' && reference) {
+      reference.cancel();
+      const s = aniso.stretch!;
+      reference = startReferenceFor(settings, n, { x0: field.x0 * s.sx, y0: field.y0 * s.sy, x1: field.x1 * s.sx, y1: field.y1 * s.sy }, segment?.minCellAreaPx, opts);
+    }
     await reference?.tick();
     // Grain size before the statistics, so that it runs while the pool is drawing the reference.
     let grain: GrainSizeResult | null = null;
@@ -282,6 +290,7 @@ async function measureLabels(
       neighbours: settings.pattern === 'walls' ? { offsets: sums.neighbourOffsets, index: sums.neighbourIndex } : undefined,
       minCellAreaPx: segment?.minCellAreaPx,
       solidity: columns.solidity ?? null,
+      anisotropy: aniso,
     });
     const summary = buildSummary({
       settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts),
@@ -294,6 +303,12 @@ async function measureLabels(
     reference?.cancel();
     throw e;
   }
+}
+
+/** Anisotropy of the interior cells from the measurement columns (any length unit: only ratios matter). */
+function cellAnisotropy(columns: Columns, edge: Uint8Array, alpha: number): Anisotropy {
+  const col = (prefix: string) => columns[Object.keys(columns).find((k) => k.startsWith(prefix))!]!;
+  return anisotropy(col('major_axis_'), col('minor_axis_'), columns.orientation_deg!, (i) => edge[i] === 0, alpha);
 }
 
 /**
@@ -359,7 +374,7 @@ async function analyzePoints(points: Float64Array, width: number, height: number
   }
   const field = settings.field ? { ...settings.field } : { x0: 0, y0: 0, x1: width, y1: height };
   const n = pts.length / 2;
-  if (n < 3) throw new TooFewCellsError(`Only ${n} point${n === 1 ? '' : 's'}; the tessellation needs at least 3.`);
+  if (n < 1) throw new NoCellsError('The point set is empty; give at least one x, y pair.');
   const reference = startReferenceFor(settings, n, field, undefined, opts);
   const progress = opts.onProgress ?? (() => {});
   try {

@@ -3,7 +3,8 @@
  * What the page needs of a label image (the cell under the pointer, the pixels of a selected cell) without
  * the full image: for cellular images a few bytes per cell boundary crossing instead of 4 bytes a pixel
  * (a 16 MP walls image of 12 577 cells: about 4 MB instead of 64 MB), so the worker hands it over
- * instead of copying the label image.
+ * instead of copying the label image. {@link rowRuns} is the one scan of a label image's rows into runs that
+ * the core's readers of label images share.
  */
 import type { LabelImage } from './types';
 
@@ -20,31 +21,63 @@ export interface LabelRuns {
   runLabel: Int32Array;
 }
 
-/** The run-length form of a label image (two passes: count the runs, then write them; at most one run a pixel). */
+/**
+ * Splits one row of a label image into runs (stretches of one label): run k covers columns
+ * [starts[k], starts[k + 1]) and holds label labs[k], and starts[nr] = w. The one scan of label images into
+ * runs: {@link labelRuns}, the per-cell sums, the cell outlines and the grain census all read rows through it.
+ * @param L the labels, row-major
+ * @param row index in L of the row's first pixel
+ * @param w the row's length (the image width)
+ * @param starts at least w + 1 long; labs at least w long
+ * @returns nr, the number of runs of the row
+ */
+export function rowRuns(L: Int32Array, row: number, w: number, starts: Int32Array, labs: Int32Array): number {
+  starts[0] = 0;
+  if (w <= 0) return 0;
+  let prev = L[row]!;
+  labs[0] = prev;
+  let nr = 1;
+  for (let x = 1; x < w; x++) {
+    const l = L[row + x]!;
+    if (l !== prev) {
+      starts[nr] = x;
+      labs[nr] = l;
+      nr++;
+      prev = l;
+    }
+  }
+  starts[nr] = w;
+  return nr;
+}
+
+/** The run-length form of a label image (one scan, row by row, with {@link rowRuns}). */
 export function labelRuns(img: LabelImage): LabelRuns {
   const { width: w, height: h, labels: L, count } = img;
   const rowStart = new Int32Array(h + 1);
-  // A run starts at each row's first pixel and wherever the label changes along the row.
+  const starts = new Int32Array(w + 1);
+  const labs = new Int32Array(Math.max(1, w));
+  let runX = new Int32Array(Math.max(16, 4 * h));
+  let runLabel = new Int32Array(runX.length);
   let k = 0;
   for (let y = 0; y < h; y++) {
     rowStart[y] = k;
-    const row = y * w;
-    for (let x = 0; x < w; x++) if (x === 0 || L[row + x] !== L[row + x - 1]) k++;
-  }
-  rowStart[h] = k;
-  const runX = new Int32Array(k);
-  const runLabel = new Int32Array(k);
-  k = 0;
-  for (let y = 0; y < h; y++) {
-    const row = y * w;
-    for (let x = 0; x < w; x++) {
-      if (x === 0 || L[row + x] !== L[row + x - 1]) {
-        runX[k] = x;
-        runLabel[k++] = L[row + x]!;
-      }
+    const nr = rowRuns(L, y * w, w, starts, labs);
+    if (k + nr > runX.length) {
+      const size = Math.max(2 * runX.length, k + nr);
+      const x2 = new Int32Array(size);
+      x2.set(runX.subarray(0, k));
+      runX = x2;
+      const l2 = new Int32Array(size);
+      l2.set(runLabel.subarray(0, k));
+      runLabel = l2;
+    }
+    for (let j = 0; j < nr; j++, k++) {
+      runX[k] = starts[j]!;
+      runLabel[k] = labs[j]!;
     }
   }
-  return { width: w, height: h, count, rowStart, runX, runLabel };
+  rowStart[h] = k;
+  return { width: w, height: h, count, rowStart, runX: runX.slice(0, k), runLabel: runLabel.slice(0, k) };
 }
 
 /** The label at pixel (x, y) (whole numbers inside the image), by binary search in the row's runs. */

@@ -31,19 +31,6 @@ export function normal(rng: Rng): number {
   return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
 }
 
-/** A Poisson deviate with mean `mean` (Knuth's method for small means, normal approximation above 500). */
-export function poisson(rng: Rng, mean: number): number {
-  if (mean > 500) return Math.max(0, Math.round(mean + Math.sqrt(mean) * normal(rng)));
-  const L = Math.exp(-mean);
-  let k = 0;
-  let p = 1;
-  do {
-    k++;
-    p *= rng();
-  } while (p > L);
-  return k - 1;
-}
-
 /**
  * A second stream's seed for the demo generator (src/core/synth): kept as it was so that the committed
  * sample images regenerate byte for byte. Its output is nearly linear in `seed`, so it must not derive

@@ -11,6 +11,7 @@ import type { ResolvedPixelSize } from './image/calibration';
 import type { PatternKind, Settings } from './settings';
 import type { RandomnessResult, TestRow, Verdict } from './stats/randomness';
 import type { Quality } from './stats/quality';
+import type { Anisotropy } from './stats/anisotropy';
 import type { ReferenceSummary } from './reference/summary';
 import type { EventsDispersion } from './stats/events';
 import type { Rect } from './types';
@@ -131,6 +132,8 @@ export interface Summary {
     warnings: string[];
   };
   clarkEvans: RandomnessResult['clarkEvans'];
+  /** Orientation order and elongation of the cells, and what the spacing statistics did about them (null for points). */
+  anisotropy: Anisotropy | null;
   /** Centre and radius of the largest empty circle among the centroids (summary units), or null. */
   largestGap: { x: number; y: number; radius: number; cell: number } | null;
   lewis: { fit: LineFitJson; referenceSlopeMean: number | null };
@@ -140,6 +143,20 @@ export interface Summary {
   events?: EventsSummary;
   /** Present for walls patterns. */
   grainSize?: GrainSizeSummary;
+}
+
+/**
+ * summary.json as written: the summary, what was analysed and by which version (when the writer knows), and
+ * every setting used, so that any figure can be reproduced from the file alone.
+ */
+export interface SummaryFile extends Summary {
+  /** The input's file name. */
+  image?: string;
+  /** The input's path as it was given (command line). */
+  input?: string;
+  /** The version of Tessellab that wrote the file. */
+  version?: string;
+  settings: Settings;
 }
 
 export interface SummaryInput {
@@ -198,11 +215,35 @@ export function buildSummary(inp: SummaryInput): Summary {
     },
     randomness: { verdict: r.verdict, verdictText: r.verdictText, alpha: r.alpha, basis: r.basis, tests: r.tests, reference: r.reference, warnings: r.warnings },
     clarkEvans: r.clarkEvans,
+    anisotropy: r.anisotropy,
     largestGap: g ? { x: g.x * k, y: g.y * k, radius: g.radius * k, cell: g.cell } : null,
     lewis: { fit: r.lewis.fit, referenceSlopeMean: r.lewis.reference.slopeMean },
     aboavWeaire: { a: r.aboavWeaire.a, fit: r.aboavWeaire.fit, referenceAMean: r.aboavWeaire.reference.aMean },
     voronoiLikeness: r.voronoiLikeness,
     ...(inp.events ? { events: inp.events } : {}),
     ...(inp.grainSize ? { grainSize: inp.grainSize } : {}),
+  };
+}
+
+/**
+ * summary.json of an input that could not be analysed: which input, which version tried, and why. A batch
+ * keeps one summary.json per input, complete or failed, so that a workflow engine keeps every result and a
+ * merged table has a row for every input. Its JSON Schema is docs/failed-summary.schema.json, generated
+ * from this interface by scripts/make-summary-schema.mjs.
+ */
+export interface FailedSummary {
+  /** The layout version, {@link SUMMARY_VERSION}. */
+  tessellab: typeof SUMMARY_VERSION;
+  /** The input's file name. */
+  image: string;
+  /** The input's path as it was given. */
+  input: string;
+  /** The version of Tessellab that tried. */
+  version: string;
+  error: {
+    /** The error's kind (src/core/errors.ts), or 'Unexpected'. */
+    kind: string;
+    /** One line: what is wrong and what to do. */
+    message: string;
   };
 }

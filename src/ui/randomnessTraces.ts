@@ -86,27 +86,22 @@ export function randomnessPlots(r: RandomnessResult, umPerPx: number | null, tex
     y: 'fraction of cells',
   });
 
-  plots.push({
-    key: 'lewis',
+  /** A law of the side classes: the observed class means beside the reference's pooled class means. */
+  type ClassLawJson = { n: number[]; observed: number[]; count: number[]; reference: { n: number[]; value: (number | null)[] } };
+  const law = (key: 'lewis' | 'aboav', l: ClassLawJson, title: string, y: string): PlotSpec => ({
+    key,
     traces: [
-      { type: 'scatter', mode: 'lines+markers', x: r.lewis.n, y: r.lewis.observed, name: 'observed', line: { color: OBSERVED_COLOUR }, text: r.lewis.count.map((c) => `${c} cells`) },
-      { type: 'scatter', mode: 'lines+markers', x: r.lewis.reference.n, y: r.lewis.reference.value, name: 'random seeding, mean of replicates', line: { color: REFERENCE_COLOUR, dash: 'dash' } },
+      { type: 'scatter', mode: 'lines+markers', x: l.n, y: l.observed, name: 'observed', line: { color: OBSERVED_COLOUR }, text: l.count.map((c) => `${c} cells`) },
+      { type: 'scatter', mode: 'lines+markers', x: l.reference.n, y: l.reference.value, name: 'random seeding, mean of replicates', line: { color: REFERENCE_COLOUR, dash: 'dash' } },
     ],
-    title: `Lewis's law (slope ${formatNumber(r.lewis.fit.slope)}; random seeding ${formatNumber(r.lewis.reference.slopeMean)})`,
+    title,
     x: 'number of sides n',
-    y: 'mean area / mean area of all',
+    y,
   });
-
-  plots.push({
-    key: 'aboav',
-    traces: [
-      { type: 'scatter', mode: 'lines+markers', x: r.aboavWeaire.n, y: r.aboavWeaire.observed, name: 'observed', line: { color: OBSERVED_COLOUR }, text: r.aboavWeaire.count.map((c) => `${c} cells`) },
-      { type: 'scatter', mode: 'lines+markers', x: r.aboavWeaire.reference.n, y: r.aboavWeaire.reference.value, name: 'random seeding, mean of replicates', line: { color: REFERENCE_COLOUR, dash: 'dash' } },
-    ],
-    title: `Aboav–Weaire (a ${formatNumber(r.aboavWeaire.a)}; random seeding ${formatNumber(r.aboavWeaire.reference.aMean)})`,
-    x: 'number of sides n',
-    y: 'mean sides of the neighbours',
-  });
+  plots.push(
+    law('lewis', r.lewis, `Lewis's law (slope ${formatNumber(r.lewis.fit.slope)}; random seeding ${formatNumber(r.lewis.reference.slopeMean)})`, 'mean area / mean area of all'),
+    law('aboav', r.aboavWeaire, `Aboav–Weaire (a ${formatNumber(r.aboavWeaire.a)}; random seeding ${formatNumber(r.aboavWeaire.reference.aMean)})`, 'mean sides of the neighbours'),
+  );
 
   // The core returns L(r) − r already (stats/pattern.ts lFunction): only the unit is changed here.
   const L = r.lFunction;

@@ -43,14 +43,13 @@ async function shot(name: string): Promise<void> {
 }
 
 /** Waits until the entry with this name is done (or failed) and returns its state. */
-async function settled(name: string, timeout = 90_000): Promise<{ status: string; count: number | null; error: string | null }> {
+async function settled(name: string): Promise<{ status: string; count: number | null; error: string | null }> {
   await page.waitForFunction(
     (n) => {
       const e = (globalThis as unknown as Win).__tessellab.entries.find((x) => x.name === n);
       return !!e && (e.status === 'done' || e.status === 'error');
     },
     name,
-    { timeout },
   );
   return page.evaluate((n) => {
     const e = (globalThis as unknown as Win).__tessellab.entries.find((x) => x.name === n)!;
@@ -93,7 +92,7 @@ afterAll(async () => {
 
 describe('Tessellab web app', () => {
   it('opens with the demo analysed: cells, tessellation and a cell count', async () => {
-    const demo = await page.waitForFunction(() => (globalThis as unknown as Win).__tessellab.entries[0]?.name ?? null, null, { timeout: 30_000 });
+    const demo = await page.waitForFunction(() => (globalThis as unknown as Win).__tessellab.entries[0]?.name ?? null, null);
     const name = (await demo.jsonValue()) as string;
     const s = await settled(name);
     expect(s.status).toBe('done');
@@ -178,15 +177,15 @@ describe('Tessellab web app', () => {
       app.selectCell(j + 1, true);
     });
     await page.getByRole('button', { name: 'Merge' }).click();
-    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before - 1);
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent())).toBe(before - 1);
     await shot('04-merged');
     await page.getByTestId('bench').focus();
     await page.keyboard.press('Control+z');
-    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before);
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent())).toBe(before);
     await page.keyboard.press('Control+Shift+z');
-    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before - 1);
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent())).toBe(before - 1);
     await page.keyboard.press('Control+z');
-    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before);
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent())).toBe(before);
   });
 
   it('a line drawn across a cell splits it; undo restores the count', async () => {
@@ -213,11 +212,11 @@ describe('Tessellab web app', () => {
     await page.mouse.move(ox + target.x * k, oy + target.y * k, { steps: 4 });
     await page.mouse.move(ox + target.x * k, oy + (target.y + h) * k, { steps: 4 });
     await page.mouse.up();
-    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before + 1);
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent())).toBe(before + 1);
     await shot('04b-split');
     await page.keyboard.press('Escape');
     await page.keyboard.press('Control+z');
-    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent()), { timeout: 30_000 }).toBe(before);
+    await expect.poll(async () => Number(await page.getByTestId('table-count').textContent())).toBe(before);
   });
 
   it('moving a Detect slider shows a preview on a downscaled copy, then the full result on release', async () => {
@@ -227,17 +226,17 @@ describe('Tessellab web app', () => {
     const resultBefore = await page.evaluate(() => (globalThis as unknown as { __tessellab: { selected: { result: { elapsedMs: number } } } }).__tessellab.selected.result.elapsedMs);
     // Dragging: 'input' events only. The preview arrives while the full result stays as it was.
     await slider.evaluate((el: HTMLInputElement) => { el.value = '1.5'; el.dispatchEvent(new Event('input', { bubbles: true })); });
-    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview?.count ?? 0), { timeout: 30_000 }).toBeGreaterThan(100);
+    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview?.count ?? 0)).toBeGreaterThan(100);
     expect(await page.evaluate(() => (globalThis as unknown as { __tessellab: { selected: { result: { elapsedMs: number } } } }).__tessellab.selected.result.elapsedMs)).toBe(resultBefore);
     await shot('04c-preview');
     // Release: 'change' runs the full analysis, which replaces the preview.
     await slider.evaluate((el: HTMLInputElement) => el.dispatchEvent(new Event('change', { bubbles: true })));
-    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview), { timeout: 30_000 }).toBeNull();
+    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview)).toBeNull();
     const s = await settled(fixture.name);
     expect(s.status).toBe('done');
     // Put it back, so later tests see the default settings.
     await slider.evaluate((el: HTMLInputElement) => { el.value = '0.7'; el.dispatchEvent(new Event('input', { bubbles: true })); el.dispatchEvent(new Event('change', { bubbles: true })); });
-    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview), { timeout: 30_000 }).toBeNull();
+    await expect.poll(() => page.evaluate(() => (globalThis as unknown as Sel).__tessellab.selected.preview)).toBeNull();
     await settled(fixture.name);
   });
 
@@ -325,7 +324,7 @@ describe('Tessellab web app', () => {
     for (const n of names) await settled(n);
     const before = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.map((e) => [e.name, e.status, e.count]));
     await page.reload();
-    await page.waitForFunction((n) => (globalThis as unknown as Win).__tessellab.entries.length === n, before.length, { timeout: 30_000 });
+    await page.waitForFunction((n) => (globalThis as unknown as Win).__tessellab.entries.length === n, before.length);
     for (const [name] of before) await settled(name as string);
     const after = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.map((e) => [e.name, e.status, e.count]));
     expect(after).toEqual(before);
@@ -335,7 +334,7 @@ describe('Tessellab web app', () => {
     await page.getByRole('tab', { name: 'Randomness' }).click();
     // Plots are drawn as they come into view.
     await page.getByTestId('plot-pair').scrollIntoViewIfNeeded();
-    await page.waitForSelector('[data-testid=plot-pair] .main-svg', { timeout: 30_000 });
+    await page.waitForSelector('[data-testid=plot-pair] .main-svg');
     // The panel plots L(r) − r as the core returns it (scaled to µm once), not with r subtracted again.
     const pair = await page.evaluate((n) => {
       const el = document.querySelector('[data-testid=plot-pair]') as unknown as { data: { name: string; x: number[]; y: (number | null)[] }[] };
@@ -353,7 +352,7 @@ describe('Tessellab web app', () => {
     expect(await page.getByTestId('tests').textContent()).toMatch(/Clark–Evans/);
     await shot('09-reloaded-randomness');
     await page.getByTestId('plot-area').scrollIntoViewIfNeeded();
-    await page.waitForSelector('[data-testid=plot-area] .main-svg', { timeout: 30_000 });
+    await page.waitForSelector('[data-testid=plot-area] .main-svg');
     await shot('09b-randomness-plots');
     await page.getByTestId('plot-pair').scrollIntoViewIfNeeded();
     await shot('09c-randomness-pair');
@@ -368,7 +367,7 @@ describe('Tessellab web app', () => {
     // sample-images/manifest.json: 0.5 µm/px stored in the PNG pHYs chunk.
     await expect.poll(() => page.getByTestId('calibration').textContent()).toMatch(/0\.5 µm per pixel.*from the file's tags/);
     await page.getByRole('tab', { name: 'Grain size' }).click();
-    await expect.poll(() => page.getByTestId('grain-g').textContent(), { timeout: 30_000 }).toMatch(/G = \d+\.\d/);
+    await expect.poll(() => page.getByTestId('grain-g').textContent()).toMatch(/G = \d+\.\d/);
     const text = (await page.getByTestId('grain-g').textContent()) as string;
     const G = Number(/G = (-?\d+\.\d)/.exec(text)?.[1]);
     // ASTM E112 planimetric: G = 3.321928 log10 N_A − 2.954 (docs/check-values.md, derived). 700 grains in
@@ -395,10 +394,12 @@ describe('Tessellab web app', () => {
   it('its Content Security Policy refuses any other origin, on the page and in the worker', async () => {
     const blocked = await page.evaluate(async () => {
       const seen: string[] = [];
-      document.addEventListener('securitypolicyviolation', (e) => seen.push(e.violatedDirective));
+      const reported = new Promise<void>((res) => document.addEventListener('securitypolicyviolation', (e) => (seen.push(e.violatedDirective), res())));
       // A loopback address on this machine: the policy must stop it before any packet is sent.
       const r = await fetch('http://127.0.0.2:9/x').then(() => 'sent', () => 'refused');
-      await new Promise((res) => setTimeout(res, 100));
+      // The violation is reported by an event of its own, which may come after the refusal: wait for it
+      // (not for a fixed time). A request that went out has nothing to wait for.
+      if (r === 'refused') await reported;
       return { r, seen };
     });
     expect(blocked.r).toBe('refused');
@@ -420,7 +421,7 @@ describe('Tessellab web app', () => {
         const e = (globalThis as unknown as Win).__tessellab?.entries[0];
         return e && (e.status === 'done' || e.status === 'error') ? { status: e.status, count: e.count, error: e.error } : null;
       });
-      await expect.poll(doneCount, { timeout: 90_000 }).not.toBeNull();
+      await expect.poll(doneCount).not.toBeNull();
       const first = (await doneCount())!;
       expect(first.status).toBe('done');
       const removed = await p.evaluate(() => new Promise<number>((resolve, reject) => {
@@ -440,7 +441,7 @@ describe('Tessellab web app', () => {
       }));
       expect(removed).toBe(1);
       await p.reload();
-      await expect.poll(doneCount, { timeout: 90_000 }).not.toBeNull();
+      await expect.poll(doneCount).not.toBeNull();
       const again = (await doneCount())!;
       expect(again.error).toBeNull();
       expect(again).toEqual(first);

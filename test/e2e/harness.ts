@@ -47,5 +47,8 @@ export async function launch(dir = mkdtempSync(join(tmpdir(), 'tessellab-e2e-'))
   const context = await chromium.launchPersistentContext(dir, {
     executablePath: CHROMIUM, headless: true, args: ARGS, viewport: { width: 1280, height: 800 }, acceptDownloads: true,
   });
+  // No time limit on any wait or action: a test waits for what it waits for, however loaded the machine.
+  // A wait that never ends is stopped by vitest's test timeout (vite.config.ts), a guard against a hang.
+  context.setDefaultTimeout(0);
   return { context, dir, close: async () => { await context.close(); rmSync(dir, { recursive: true, force: true }); } };
 }

@@ -49,11 +49,11 @@ async function download(testId: string): Promise<{ name: string; bytes: Buffer }
   return { name: d.suggestedFilename(), bytes: readFileSync(await d.path()) };
 }
 
-async function settled(name: string, timeout = 120_000): Promise<{ status: string; count: number | null; error: string | null }> {
+async function settled(name: string): Promise<{ status: string; count: number | null; error: string | null }> {
   await page.waitForFunction((n) => {
     const e = (globalThis as unknown as Win).__tessellab.entries.find((x) => x.name === n);
     return !!e && (e.status === 'done' || e.status === 'error');
-  }, name, { timeout });
+  }, name);
   return page.evaluate((n) => {
     const e = (globalThis as unknown as Win).__tessellab.entries.find((x) => x.name === n)!;
     return { status: e.status, count: e.count, error: e.error };
@@ -92,17 +92,17 @@ afterAll(async () => {
 
 describe('Kinetics panel', () => {
   it('fits the series to the command line\'s n and k and writes its files', async () => {
-    await page.waitForFunction(() => (globalThis as unknown as Win).__tessellab.entries.length > 0, null, { timeout: 30_000 });
+    await page.waitForFunction(() => (globalThis as unknown as Win).__tessellab.entries.length > 0, null);
     await page.getByTestId('file-input').setInputFiles(files);
-    await page.waitForFunction((n) => (globalThis as unknown as Win).__tessellab.entries.length >= n, files.length + 1, { timeout: 30_000 });
+    await page.waitForFunction((n) => (globalThis as unknown as Win).__tessellab.entries.length >= n, files.length + 1);
     await page.getByRole('tab', { name: 'Kinetics' }).click();
     const pick = page.getByTestId('kinetics-images');
     for (const f of files) await pick.getByLabel(f.split('/').pop() as string).check();
     await page.getByTestId('kinetics-times').fill(times.join(', '));
     await page.getByTestId('kinetics-unit').fill('min');
     await page.getByTestId('kinetics-run').click();
-    await page.waitForSelector('[data-testid=kinetics-n]', { timeout: 120_000 });
-    await page.waitForSelector('[data-testid=kinetics-plot-avrami] .main-svg', { timeout: 30_000 });
+    await page.waitForSelector('[data-testid=kinetics-n]');
+    await page.waitForSelector('[data-testid=kinetics-plot-avrami] .main-svg');
 
     const ref = JSON.parse(readFileSync(join(cliOut, 'kinetics.json'), 'utf8')) as { avrami: { n: number; k: number; method: string }; frames: unknown[] };
     const shownN = Number(await page.getByTestId('kinetics-n').textContent());
@@ -134,7 +134,7 @@ describe('Kinetics panel', () => {
     [bad[2], bad[3]] = [bad[3]!, bad[2]!];
     await page.getByTestId('kinetics-times').fill(bad.join(', '));
     await page.getByTestId('kinetics-run').click();
-    await expect.poll(() => page.getByTestId('kinetics-error').textContent(), { timeout: 30_000 }).toMatch(/Times must increase from frame to frame: frame 4 \(t = 7\) after frame 3 \(t = 10\)/);
+    await expect.poll(() => page.getByTestId('kinetics-error').textContent()).toMatch(/Times must increase from frame to frame: frame 4 \(t = 7\) after frame 3 \(t = 10\)/);
     expect(await page.getByTestId('kinetics-n').count()).toBe(1);
     await page.getByTestId('kinetics-error').scrollIntoViewIfNeeded();
     await page.screenshot({ path: join(SCREENSHOTS, '22-kinetics-bad-times.png') });
@@ -143,7 +143,7 @@ describe('Kinetics panel', () => {
 
   it('the final frame becomes a walls entry with the command line\'s cell count, and the Randomness panel reads it', async () => {
     await page.getByTestId('kinetics-final').click();
-    await expect.poll(() => page.getByTestId('kinetics-final-message').count(), { timeout: 30_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('kinetics-final-message').count()).toBe(1);
     const name = await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.at(-1)!.name);
     expect(name).toMatch(/final-mosaic\.png$/);
     const s = await settled(name);
@@ -168,13 +168,13 @@ describe('Kinetics panel', () => {
       const g = globalThis as unknown as Mosaic;
       const e = g.__tessellab.entries.find((x) => x.name === n)!;
       return (e.result !== g.__before && e.result !== null) || e.error !== null;
-    }, name, { timeout: 60_000 });
+    }, name);
     const again = await settled(name);
     expect(again.error).toBeNull();
     expect(again.status).toBe('done');
     expect(again.count).toBe(ref.summary.cells.count);
     await page.getByRole('tab', { name: 'Randomness' }).click();
-    await expect.poll(() => page.getByTestId('verdict').textContent(), { timeout: 30_000 }).toMatch(/more regular than random|consistent with random seeding|more irregular than random/);
+    await expect.poll(() => page.getByTestId('verdict').textContent()).toMatch(/more regular than random|consistent with random seeding|more irregular than random/);
     await page.screenshot({ path: join(SCREENSHOTS, '23-kinetics-final-randomness.png') });
     expect(pageErrors).toEqual([]);
   });

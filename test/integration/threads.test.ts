@@ -38,18 +38,31 @@ describe('reference threads change nothing in the results', () => {
 
   it('an analysis cancelled before its statistics stops its reference: the pool draws no further chunk', async () => {
     const img = synthesize({ pattern: 'walls', cells: 400, width: 700, height: 600, order: 'random', seed: 9 }).image;
-    let calls = 0;
-    const counting: ReferencePool = { size: pool.size, run: (plan, r0, r1) => (calls++, pool.run(plan, r0, r1)) };
+    // Every chunk handed to the pool, as the promise of its batch.
+    const runs: Promise<unknown>[] = [];
+    const counting: ReferencePool = {
+      size: pool.size,
+      run: (plan, r0, r1) => {
+        const p = pool.run(plan, r0, r1);
+        runs.push(p);
+        return p;
+      },
+    };
     const ctl = new AbortController();
     clearReferenceCache();
     const run = analyze({ kind: 'image', image: img }, { ...settings, reference: { replicates: 199, seed: 4 } }, {
       referencePool: counting, signal: ctl.signal, onProgress: (s, f) => s === 'measure' && f === 1 && ctl.abort(),
     });
     await expect(run).rejects.toBeInstanceOf(CancelledError);
-    const atCancel = calls;
-    await new Promise((r) => setTimeout(r, 300));
+    const atCancel = runs.length;
+    // Wait for the chunks already out to land (events, not a fixed time). A reference that went on would
+    // hand out its next chunk synchronously when one lands, before this wait resumes, and be waited for too.
+    for (let seen = -1; seen !== runs.length; ) {
+      seen = runs.length;
+      await Promise.allSettled(runs);
+    }
     expect(atCancel).toBeGreaterThan(0);
-    expect(calls).toBe(atCancel);
+    expect(runs.length).toBe(atCancel);
   });
 
   it('points: the same summary.json with and without the pool', async () => {

@@ -29,8 +29,8 @@ describe('walls windows from the generator against the window reference', () => 
     // Mean of 10 standardised values: its standard error is about 1/√10; 0.75 is about 2.4 of them.
     const meanZ = res.reduce((s, r) => s + r.z, 0) / res.length;
     expect(Math.abs(meanZ)).toBeLessThan(0.75);
-  }, 120_000);
+  });
   it('hard-core seeding: "more regular than random"', async () => {
     for (let k = 0; k < 3; k++) expect((await verdictOf('regular', 600 + k)).verdict).toBe('more regular than random');
-  }, 60_000);
+  });
 });

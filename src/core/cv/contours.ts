@@ -5,6 +5,7 @@
  */
 import type { CV } from './index';
 import { withMats } from './mats';
+import { labelRuns } from '../labelRuns';
 import type { LabelImage } from '../types';
 
 export interface Polygons {
@@ -27,54 +28,45 @@ const ATLAS_SIDE = 2048;
  *   at pixel centres in the continuous coordinates of the tables.
  */
 export function cellOutlines(cv: CV, img: LabelImage, offsetX = 0, offsetY = 0): Polygons {
-  const { width: w, height: h, labels: L, count } = img;
+  const { width: w, height: h, count } = img;
   const xmin = new Int32Array(count).fill(w);
   const ymin = new Int32Array(count).fill(h);
   const xmax = new Int32Array(count).fill(-1);
   const ymax = new Int32Array(count).fill(-1);
   // The cells' runs (row, first x, end x), bucketed by cell: masks are then drawn run by run.
-  let runs = new Int32Array(Math.max(64, 4 * (h + 8 * count)));
-  let nRuns = 0;
   const perCell = new Int32Array(count + 1);
-  for (let y = 0; y < h; y++) {
-    const row = y * w;
-    let x = 0;
-    while (x < w) {
-      const l = L[row + x]! - 1;
-      let e = x + 1;
-      while (e < w && L[row + e] === l + 1) e++;
-      if (l >= 0) {
+  let cellRuns: Int32Array;
+  {
+    const { rowStart, runX, runLabel } = labelRuns(img);
+    for (let y = 0; y < h; y++) {
+      const end = rowStart[y + 1]!;
+      for (let k = rowStart[y]!; k < end; k++) {
+        const l = runLabel[k]! - 1;
+        if (l < 0) continue;
+        const x = runX[k]!;
+        const e = k + 1 < end ? runX[k + 1]! : w;
         if (x < xmin[l]!) xmin[l] = x;
         if (e - 1 > xmax[l]!) xmax[l] = e - 1;
         if (y < ymin[l]!) ymin[l] = y;
         if (y > ymax[l]!) ymax[l] = y;
-        if (4 * nRuns + 4 > runs.length) {
-          const more = new Int32Array(runs.length * 2);
-          more.set(runs);
-          runs = more;
-        }
-        runs[4 * nRuns] = l;
-        runs[4 * nRuns + 1] = y;
-        runs[4 * nRuns + 2] = x;
-        runs[4 * nRuns + 3] = e;
-        nRuns++;
         perCell[l + 1]!++;
       }
-      x = e;
     }
-  }
-  for (let c = 0; c < count; c++) perCell[c + 1]! += perCell[c]!;
-  const cellRuns = new Int32Array(3 * nRuns);
-  {
+    for (let c = 0; c < count; c++) perCell[c + 1]! += perCell[c]!;
+    cellRuns = new Int32Array(3 * perCell[count]!);
     const pos = perCell.slice(0, count);
-    for (let i = 0; i < nRuns; i++) {
-      const j = 3 * pos[runs[4 * i]!]!++;
-      cellRuns[j] = runs[4 * i + 1]!;
-      cellRuns[j + 1] = runs[4 * i + 2]!;
-      cellRuns[j + 2] = runs[4 * i + 3]!;
+    for (let y = 0; y < h; y++) {
+      const end = rowStart[y + 1]!;
+      for (let k = rowStart[y]!; k < end; k++) {
+        const l = runLabel[k]! - 1;
+        if (l < 0) continue;
+        const j = 3 * pos[l]!++;
+        cellRuns[j] = y;
+        cellRuns[j + 1] = runX[k]!;
+        cellRuns[j + 2] = k + 1 < end ? runX[k + 1]! : w;
+      }
     }
   }
-  runs = new Int32Array(0);
   let maxW = 0;
   let maxH = 0;
   for (let c = 0; c < count; c++) {

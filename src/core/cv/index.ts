@@ -49,9 +49,3 @@ export async function loadCv(): Promise<CvHandle> {
   await pending;
   return handle as unknown as CvHandle;
 }
-
-/** The loaded module, for code that runs after loadCv() has resolved. */
-export function cvNow(): CV {
-  if (!handle) throw new Error('opencv.js is not loaded yet: await loadCv() first.');
-  return handle.cv;
-}

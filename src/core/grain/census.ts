@@ -3,6 +3,7 @@
  * in the field, whether it reaches the field's border or beyond, its pixels and bounding box off the border,
  * and its pixels in each planimetric test figure with the sums of their centres.
  */
+import { rowRuns } from '../labelRuns';
 import type { LabelImage, Rect } from '../types';
 import { figureContains } from './figure';
 import type { TestFigure } from './types';
@@ -81,24 +82,6 @@ function figureRow(f: TestFigure, y: number, fx0: number, fx1: number): [number,
     if (a > b) return [0, 0];
   }
   return [Math.max(a, fx0), Math.min(b + 1, fx1)];
-}
-
-/** Splits the row of `w` labels from index `row` into runs: run k covers [starts[k], starts[k + 1]) with label labs[k]. @returns the number of runs */
-function rowRuns(L: Int32Array, row: number, w: number, starts: Int32Array, labs: Int32Array): number {
-  let prev = L[row]!;
-  labs[0] = prev;
-  let nr = 1;
-  for (let x = 1; x < w; x++) {
-    const l = L[row + x]!;
-    if (l !== prev) {
-      starts[nr] = x;
-      labs[nr] = l;
-      nr++;
-      prev = l;
-    }
-  }
-  starts[nr] = w;
-  return nr;
 }
 
 /** Adds row y of the field, given as its runs, to the census. @returns its wall pixels */

@@ -11,7 +11,7 @@ import type { PatternKind, Settings } from '../settings';
 import type { LabelImage, Rect } from '../types';
 import { checkLabelsAndField } from './check';
 import { centredFigure, checkFigureInField, quadrants } from './figure';
-import { gFromMeanArea, gFromMeanIntercept, gFromNA, G_MAX, G_MIN, isoFromAstm, isPlausibleG, formatG, roundG } from './formulas';
+import { gFromMeanArea, gFromMeanIntercept, gFromNA, G_MAX, G_MIN, isoFromAstm, isPlausibleG, roundG } from './formulas';
 import { interceptCount, testPatterns } from './intercept';
 import { fieldCensus, type FieldCensus } from './census';
 import { jeffriesCountOf, wholePixelFigure } from './jeffries';
@@ -396,66 +396,3 @@ export function grainSizeSummary(r: GrainSizeResult): GrainSizeSummary {
     cautions: r.cautions,
   };
 }
-
-/** The grain size columns of a summary.csv row (one image); empty cells are null. */
-export function grainSizeCsvRow(r: GrainSizeResult): Record<string, number | string | null> {
-  return {
-    grain_G: r1(r.G),
-    grain_method: r.method,
-    grain_G_ci95_lo: r.ci95 ? r1(r.ci95[0]) : null,
-    grain_G_ci95_hi: r.ci95 ? r1(r.ci95[1]) : null,
-    grain_ra_pct: sig(r.relativeAccuracyPct, 3),
-    grain_iso643: r1(r.iso643),
-    grain_planimetric_G: r1(r.planimetric?.G),
-    grain_NA_per_mm2: sig(r.planimetric?.NA_per_mm2),
-    grain_intercept_G: r1(r.intercept?.G),
-    grain_mean_intercept_um: sig(r.intercept?.meanIntercept_um),
-    grain_anisotropy: sig(r.intercept?.anisotropy?.ratio, 3),
-    grain_mean_area_G: r1(r.meanArea?.G),
-    grain_duplex: r.meanArea ? (r.meanArea.duplex ? 1 : 0) : null,
-    grain_warnings: r.warnings.length,
-  };
-}
-
-/** The rating over several fields (images): per method the statistics of the per-field N_A or N_L and G from their mean. */
-export interface FieldsRating {
-  fields: number;
-  planimetric: { NA_per_mm2: Precision; G: number | null; ci95: [number, number] | null } | null;
-  intercept: { NL_per_mm: Precision; G: number | null; ci95: [number, number] | null } | null;
-  warnings: string[];
-}
-
-/**
- * Combines the ratings of several fields (images of one specimen) by the statistics section of ASTM E112:
- * the mean and standard deviation of the field values of N_A (planimetric) and N_L (intercept), the 95 %
- * confidence interval t·s/√n and %RA, and G from the mean field value.
- *
- * @param results one grain size result per field
- */
-export function combineFields(results: readonly GrainSizeResult[]): FieldsRating {
-  const warnings: string[] = [];
-  const na = results.map((r) => r.planimetric?.NA_per_mm2).filter((v): v is number => v !== undefined);
-  const nl = results.map((r) => r.intercept?.NL_per_mm).filter((v): v is number => v !== undefined);
-  const pa = na.length > 0 ? precision(na) : null;
-  const pl = nl.length > 0 ? precision(nl) : null;
-  const planimetricOut = pa && pa.mean !== null && pa.mean > 0
-    ? { NA_per_mm2: pa, G: gFromNA(pa.mean), ci95: gInterval(gFromNA(pa.mean), pa, 1) }
-    : null;
-  const interceptOut = pl && pl.mean !== null && pl.mean > 0
-    ? { NL_per_mm: pl, G: gFromMeanIntercept(1 / pl.mean), ci95: gInterval(gFromMeanIntercept(1 / pl.mean), pl, 2) }
-    : null;
-  if (results.length < 5) warnings.push(`Only ${results.length} fields; ASTM E112 suggests at least five fields chosen at random.`);
-  for (const p of [pa, pl]) {
-    if (p && p.relativeAccuracyPct !== null && p.relativeAccuracyPct > ACCEPTABLE_RA_PCT) {
-      warnings.push(`Relative accuracy ${p.relativeAccuracyPct.toFixed(1)} % is worse than ${ACCEPTABLE_RA_PCT} %: measure more fields.`);
-    }
-  }
-  return { fields: results.length, planimetric: planimetricOut, intercept: interceptOut, warnings };
-}
-
-/** One-line statement of a rating, e.g. "G 7.2 (planimetric (Jeffries), test circle), ISO 643 index 7.2". */
-export function describeRating(r: GrainSizeResult): string {
-  if (r.G === null) return 'No grain size rating: see the warnings.';
-  return `G ${formatG(r.G)} (${r.method})${r.iso643 !== null ? `, ISO 643 index ${formatG(r.iso643)}` : ''}`;
-}
-

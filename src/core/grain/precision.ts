@@ -1,11 +1,5 @@
 /** Field-to-field statistics of a grain size measurement, as the statistics section of ASTM E112 defines them. */
-// @ts-ignore -- jstat ships no type declarations; the one function used is typed below.
-import jStatModule from 'jstat';
-
-interface JStatLike {
-  studentt: { inv(p: number, dof: number): number };
-}
-const jStat = jStatModule as unknown as JStatLike;
+import { t975 } from '../stats/dist';
 
 /** Mean, spread and 95 % confidence interval of n field values. null where n is too small to say. */
 export interface Precision {
@@ -27,7 +21,7 @@ export interface Precision {
  *
  * mean x̄ = Σx/n; s = √(Σ(x − x̄)²/(n − 1)); 95 % CI = t·s/√n with t the two-sided 95 % quantile of Student's
  * t with n − 1 degrees of freedom; %RA = 100·CI/x̄. (ASTM E112, section on statistical analysis.)
- * The t quantile comes from jstat.
+ * The t quantile comes from jstat (stats/dist.ts).
  *
  * @param values field values, any one unit (at least 2 for a spread)
  */
@@ -41,7 +35,7 @@ export function precision(values: readonly number[]): Precision {
   let ss = 0;
   for (const v of values) ss += (v - mean) ** 2;
   const sd = Math.sqrt(ss / (n - 1));
-  const t = jStat.studentt.inv(0.975, n - 1);
+  const t = t975(n - 1);
   const ci95 = (t * sd) / Math.sqrt(n);
   const relativeAccuracyPct = mean !== 0 ? (100 * ci95) / mean : null;
   return { n, mean, sd, t, ci95, relativeAccuracyPct };

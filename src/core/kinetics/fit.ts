@@ -6,7 +6,7 @@ import { SeriesError } from '../errors';
 import { avramiPoint, halfTime, jmak, rateK } from './jmak';
 import { invert } from './linalg';
 import { levenbergMarquardt } from './lm';
-import { t975 } from './tdist';
+import { t975 } from '../stats/dist';
 
 /** A 95 % interval [low, high], or null when it cannot be estimated (no degrees of freedom). */
 export type Interval = [number, number] | null;

@@ -4,6 +4,7 @@
  * marching-squares perimeter, the neighbour pairs and the per-row extents for the convex hull.
  * No per-cell full-image scans: the cost is O(pixels + cells).
  */
+import { labelRuns } from '../labelRuns';
 import type { LabelImage } from '../types';
 
 export interface CellSums {
@@ -84,55 +85,40 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
   const ymax = new Int32Array(count).fill(-1);
   const edge = new Uint8Array(count);
 
-  // Sweep 1: moments by runs (a run of one label in a row contributes closed-form sums). The runs of
-  // cells are kept (label, first x, end x; rows in order) for the hull's row extents below.
-  let runs = new Int32Array(Math.max(48, 3 * (h + count * 8)));
-  let nRuns = 0;
-  const rowRuns = new Int32Array(h + 1);
+  // Sweep 1: moments by runs (a run of one label in a row contributes closed-form sums). The runs are
+  // kept for the hull's row extents below.
+  const { rowStart, runX, runLabel } = labelRuns(img);
   for (let y = 0; y < h; y++) {
-    rowRuns[y] = nRuns;
     const row = y * w;
-    let x = 0;
-    while (x < w) {
-      const l = L[row + x]!;
-      let e = x + 1;
-      while (e < w && L[row + e] === l) e++;
-      if (l > 0) {
-        const c = l - 1;
-        const len = e - x;
-        // Σ over x..e-1 of k and k².
-        const s1 = ((x + e - 1) * len) / 2;
-        const s2 = ((e - 1) * e * (2 * e - 1) - (x - 1) * x * (2 * x - 1)) / 6;
-        n[c]! += len;
-        sx[c]! += s1;
-        sy[c]! += y * len;
-        sxx[c]! += s2;
-        syy[c]! += y * y * len;
-        sxy[c]! += y * s1;
-        if (intensity) {
-          let acc = 0;
-          for (let k = row + x; k < row + e; k++) acc += intensity[k]!;
-          si[c]! += acc;
-        }
-        if (x < xmin[c]!) xmin[c] = x;
-        if (e - 1 > xmax[c]!) xmax[c] = e - 1;
-        if (y < ymin[c]!) ymin[c] = y;
-        if (y > ymax[c]!) ymax[c] = y;
-        if (x === 0 || e === w || y === 0 || y === h - 1) edge[c] = 1;
-        if (3 * nRuns + 3 > runs.length) {
-          const more = new Int32Array(runs.length * 2);
-          more.set(runs);
-          runs = more;
-        }
-        runs[3 * nRuns] = l;
-        runs[3 * nRuns + 1] = x;
-        runs[3 * nRuns + 2] = e;
-        nRuns++;
+    const end = rowStart[y + 1]!;
+    for (let k = rowStart[y]!; k < end; k++) {
+      const l = runLabel[k]!;
+      if (l <= 0) continue;
+      const x = runX[k]!;
+      const e = k + 1 < end ? runX[k + 1]! : w;
+      const c = l - 1;
+      const len = e - x;
+      // Σ over x..e-1 of k and k².
+      const s1 = ((x + e - 1) * len) / 2;
+      const s2 = ((e - 1) * e * (2 * e - 1) - (x - 1) * x * (2 * x - 1)) / 6;
+      n[c]! += len;
+      sx[c]! += s1;
+      sy[c]! += y * len;
+      sxx[c]! += s2;
+      syy[c]! += y * y * len;
+      sxy[c]! += y * s1;
+      if (intensity) {
+        let acc = 0;
+        for (let i = row + x; i < row + e; i++) acc += intensity[i]!;
+        si[c]! += acc;
       }
-      x = e;
+      if (x < xmin[c]!) xmin[c] = x;
+      if (e - 1 > xmax[c]!) xmax[c] = e - 1;
+      if (y < ymin[c]!) ymin[c] = y;
+      if (y > ymax[c]!) ymax[c] = y;
+      if (x === 0 || e === w || y === 0 || y === h - 1) edge[c] = 1;
     }
   }
-  rowRuns[h] = nRuns;
 
   const cx = new Float64Array(count);
   const cy = new Float64Array(count);
@@ -219,10 +205,12 @@ export function cellSums(img: LabelImage, intensity?: ArrayLike<number>): CellSu
     padded(w - 1, y);
   }
   for (let y = 0; y < h; y++) {
-    for (let i = rowRuns[y]!; i < rowRuns[y + 1]!; i++) {
-      const l = runs[3 * i]!;
-      const x = runs[3 * i + 1]!;
-      const e = runs[3 * i + 2]!;
+    const end = rowStart[y + 1]!;
+    for (let k = rowStart[y]!; k < end; k++) {
+      const l = runLabel[k]!;
+      if (l <= 0) continue;
+      const x = runX[k]!;
+      const e = k + 1 < end ? runX[k + 1]! : w;
       const r = rowOff[l - 1]! + (y - ymin[l - 1]!);
       if (x < rowLo[r]!) rowLo[r] = x;
       if (e > rowHi[r]!) rowHi[r] = e;

@@ -1,6 +1,6 @@
 /**
  * Distribution functions from jstat (a general-purpose statistics library) and the few special functions
- * the gamma fit needs.
+ * the gamma fit needs. The one wrapper of jstat: every other module takes its distributions from here.
  */
 // @ts-ignore -- jstat ships no type declarations; the functions used are typed below.
 import jStatModule from 'jstat';
@@ -9,6 +9,7 @@ interface JStatLike {
   chisquare: { cdf(x: number, dof: number): number };
   gamma: { cdf(x: number, shape: number, scale: number): number; pdf(x: number, shape: number, scale: number): number };
   normal: { cdf(x: number, mean: number, sd: number): number };
+  studentt: { inv(p: number, dof: number): number };
 }
 const jStat = jStatModule as unknown as JStatLike;
 
@@ -24,14 +25,23 @@ export function chiSquareLower(x: number, dof: number): number {
   return jStat.chisquare.cdf(x, dof);
 }
 
+/** Density of the gamma law with the given shape and rate (scale = 1 / rate). */
+export function gammaPdf(x: number, shape: number, rate: number): number {
+  return x <= 0 ? 0 : jStat.gamma.pdf(x, shape, 1 / rate);
+}
+
 /** CDF of the gamma law with the given shape and rate (scale = 1 / rate). */
 export function gammaCdf(x: number, shape: number, rate: number): number {
   return x <= 0 ? 0 : jStat.gamma.cdf(x, shape, 1 / rate);
 }
 
-/** Density of the gamma law with the given shape and rate. */
-export function gammaPdf(x: number, shape: number, rate: number): number {
-  return x <= 0 ? 0 : jStat.gamma.pdf(x, shape, 1 / rate);
+/**
+ * The two-sided 95 % Student-t quantile t(0.975, dof), or NaN when dof < 1.
+ * @param dof degrees of freedom
+ */
+export function t975(dof: number): number {
+  if (!(dof >= 1)) return Number.NaN;
+  return jStat.studentt.inv(0.975, dof);
 }
 
 /** Two-sided normal p-value of a z score. */

@@ -14,6 +14,7 @@ import { STATISTICS, type PatternCurves, type PatternFigures, type StatisticKey 
 import { chiSquareUpper, gammaPdf, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';
 import { assessQuality, type Quality } from './quality';
+import { stretchPoints, type Anisotropy } from './anisotropy';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
 import {
   MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, type CellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
@@ -65,6 +66,8 @@ export interface RandomnessInput {
   solidity?: ArrayLike<number> | null;
   /** Notices of earlier stages for the quality block (they do not fail it). */
   notices?: string[];
+  /** Anisotropy of the cells (walls): aligned elongated cells move the spacing statistics to a stretched frame. */
+  anisotropy?: Anisotropy | null;
 }
 
 /** The minimum cell area (px²) the observation used: the segmentation's, else settings.minCellAreaPx for images, else 0. */
@@ -83,7 +86,8 @@ function referenceLayoutOf(settings: Settings): ReferenceLayout {
  * when the settings ask for no reference (replicates 0).
  */
 export function referenceOptionsFor(settings: Settings, cells: number, field: Rect, minCellAreaPx?: number): ReferenceOptions | null {
-  if (settings.reference.replicates < 1) return null;
+  // Fewer cells than the verdict needs: a reference could not change the answer.
+  if (settings.reference.replicates < 1 || cells < MIN_INTERIOR_CELLS) return null;
   return {
     cells, field, replicates: settings.reference.replicates, seed: settings.reference.seed, edgeRule: settings.edgeRule,
     minCellAreaPx: observedMinArea(settings, minCellAreaPx), layout: referenceLayoutOf(settings),
@@ -112,6 +116,8 @@ export interface TestRow {
 export interface RandomnessResult {
   /** The check before the verdict: when not ok, the verdict is null ("not rated") with the reason. */
   quality: Quality;
+  /** Anisotropy of the cells, or null where it was not measured (points). */
+  anisotropy: Anisotropy | null;
   verdict: Verdict | null;
   /** The verdict with the statistic and p-value behind it, or why there is none. */
   verdictText: string;
@@ -184,6 +190,11 @@ export function monteCarloP(t: number, values: ArrayLike<number>, tail: 'two' | 
   return Math.min(1, (2 * Math.min(1 + ge, 1 + le)) / (R + 1));
 }
 
+/** The field scaled by a stretch (the field itself without one). */
+function stretchedField(f: Rect, s: { sx: number; sy: number } | null): Rect {
+  return s ? { x0: f.x0 * s.sx, y0: f.y0 * s.sy, x1: f.x1 * s.sx, y1: f.y1 * s.sy } : f;
+}
+
 /** Number of the sample's cells with n sides, n = 0..MAX_SIDES (the last bin holds MAX_SIDES or more). */
 function sideCounts(sides: Int32Array, s: CellSample): number[] {
   const c = new Array<number>(MAX_SIDES + 1).fill(0);
@@ -203,22 +214,29 @@ export function readingOf(regular: 'low' | 'high' | null, value: number, referen
 }
 
 /**
- * Combined Monte Carlo test of several signed statistics by their largest standardised departure: with the
- * mean and sd of each statistic over all R + 1 patterns (the observed one and the replicates,
- * exchangeable under random seeding), T = max_s |x_s − mean_s| / sd_s, and the p-value is the observed T's
- * rank among the R + 1 values of T, (#{T_j ≥ T_obs}) / (R + 1). Being a symmetric function of the R + 1
- * patterns, T keeps the test exactly at its nominal size whatever the dependence between the statistics,
- * and unlike a smallest-rank combination it has no ties that would make it coarse.
- * (Besag & Diggle 1977, Appl. Stat. 26:327, for the Monte Carlo test; the maximum of standardised
- * statistics is a usual global-envelope form, Myllymäki et al. 2017, J. R. Stat. Soc. B 79:381; pub, memory.)
+ * Combined Monte Carlo test of several signed statistics. With the mean and sd of each statistic over all
+ * R + 1 patterns (the observed one and the replicates, exchangeable under random seeding), each pattern j
+ * gets standardised departures z_sj = (x_sj − mean_s)/sd_s and two summaries: the largest departure
+ * max_s |z_sj| (a usual global-envelope form), and, when the statistics' "regular" directions are given,
+ * their agreement A_j = Σ_s d_s·z_sj with d_s = ±1 pointing every statistic towards "regular", itself
+ * standardised over the R + 1 patterns. T_j is the larger of the two, and the p-value is the observed T's
+ * rank among the R + 1 values, #{T_j ≥ T_obs}/(R + 1). Being a symmetric function of the R + 1 patterns, T
+ * keeps the test exactly at its nominal size whatever the dependence between the statistics; the agreement
+ * gives it power when several statistics depart a little in the same direction, the maximum when one
+ * departs a lot. (Besag & Diggle 1977, Appl. Stat. 26:327, for the Monte Carlo test; Myllymäki et al. 2017,
+ * J. R. Stat. Soc. B 79:381, for global envelopes; pub, memory.)
  *
  * @param observed observed value of each statistic
  * @param replicates replicate values of each statistic (same length R each); replicates with any
  *   non-finite value are dropped
- * @returns the combined p-value, the index of the statistic with the largest observed departure, and
- *   each statistic's own two-sided rank p-value
+ * @param regularSign per statistic +1 when larger values read "regular", −1 when smaller do (omit for no agreement term)
+ * @returns the combined p-value, the index of the statistic with the largest observed departure, each
+ *   statistic's own two-sided rank p-value, and the observed agreement (positive: towards "regular") and
+ *   whether it, rather than one statistic, carried the test
  */
-export function combinedMaxZ(observed: number[], replicates: ArrayLike<number>[]): { p: number; strongest: number; pEach: number[] } | null {
+export function combinedMaxZ(
+  observed: number[], replicates: ArrayLike<number>[], regularSign?: number[],
+): { p: number; strongest: number; pEach: number[]; agreement: number | null; byAgreement: boolean } | null {
   const S = observed.length;
   if (!S) return null;
   const R0 = replicates[0]!.length;
@@ -227,30 +245,49 @@ export function combinedMaxZ(observed: number[], replicates: ArrayLike<number>[]
   const N = keep.length + 1;
   if (N < 3) return null;
   const T = new Float64Array(N);
+  const A = new Float64Array(N);
   const zObs: number[] = [];
   const pEach: number[] = [];
   for (let s = 0; s < S; s++) {
     const v = new Float64Array(N);
     keep.forEach((r, j) => (v[j] = replicates[s]![r]!));
     v[N - 1] = observed[s]!;
-    let mean = 0;
-    for (let j = 0; j < N; j++) mean += v[j]!;
-    mean /= N;
-    let sd = 0;
-    for (let j = 0; j < N; j++) sd += (v[j]! - mean) ** 2;
-    sd = Math.sqrt(sd / (N - 1)) || 1;
+    const [mean, sd] = meanAndSd(v);
     for (let j = 0; j < N; j++) {
-      const z = Math.abs(v[j]! - mean) / sd;
-      if (z > T[j]!) T[j] = z;
+      const z = (v[j]! - mean) / sd;
+      if (Math.abs(z) > T[j]!) T[j] = Math.abs(z);
+      if (regularSign) A[j]! += regularSign[s]! * z;
     }
     zObs.push(Math.abs(v[N - 1]! - mean) / sd);
     pEach.push(monteCarloP(observed[s]!, v.subarray(0, N - 1), 'two')!);
+  }
+  let agreement: number | null = null;
+  let byAgreement = false;
+  if (regularSign && S > 1) {
+    const [mean, sd] = meanAndSd(A);
+    for (let j = 0; j < N; j++) {
+      const z = Math.abs(A[j]! - mean) / sd;
+      if (j === N - 1 && z > T[j]!) byAgreement = true;
+      if (z > T[j]!) T[j] = z;
+    }
+    agreement = (A[N - 1]! - mean) / sd;
   }
   let count = 0;
   for (let j = 0; j < N; j++) if (T[j]! >= T[N - 1]!) count++;
   let strongest = 0;
   for (let s = 1; s < S; s++) if (zObs[s]! > zObs[strongest]!) strongest = s;
-  return { p: count / N, strongest, pEach };
+  return { p: count / N, strongest, pEach, agreement, byAgreement };
+}
+
+/** Mean and sample sd (1 when the values do not vary) of a sample. */
+function meanAndSd(v: Float64Array): [number, number] {
+  const N = v.length;
+  let mean = 0;
+  for (let j = 0; j < N; j++) mean += v[j]!;
+  mean /= N;
+  let sd = 0;
+  for (let j = 0; j < N; j++) sd += (v[j]! - mean) ** 2;
+  return [mean, Math.sqrt(sd / (N - 1)) || 1];
 }
 
 const fmt = (v: number): string => (Math.abs(v) >= 100 ? v.toFixed(0) : Math.abs(v) >= 1 ? v.toFixed(3) : v.toPrecision(3));
@@ -280,10 +317,16 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const bbox = input.bbox ?? t.bbox;
   const graph = input.neighbours ?? { offsets: t.neighbourOffsets, index: t.neighbourIndex };
 
+  // Spacing statistics: in the frame where the mean cell is round when the cells are aligned and elongated.
+  const stretch = input.anisotropy?.spacing === 'stretched' ? input.anisotropy.stretch : null;
+  const spacingField = stretchedField(field, stretch);
+  const spacingPoints = stretch ? stretchPoints(t.points, stretch) : t.points;
   let ref: Reference | null = input.reference ?? null;
   if (!ref) {
-    const refOpts = referenceOptionsFor(settings, n, field, input.minCellAreaPx);
-    if (!refOpts) {
+    const refOpts = referenceOptionsFor(settings, n, spacingField, input.minCellAreaPx);
+    if (!refOpts && n < MIN_INTERIOR_CELLS) {
+      warnings.push(`No random-seeding reference was drawn: ${n} cell${n === 1 ? '' : 's'} cannot be compared with random seeding (the comparison needs at least ${MIN_INTERIOR_CELLS}).`);
+    } else if (!refOpts) {
       warnings.push('No random-seeding reference was drawn (reference.replicates is 0); only the published constants are shown. Set replicates to 199 for tests.');
     } else if (input.referenceError !== undefined) {
       warnings.push(`The random-seeding reference could not be drawn: ${input.referenceError}`);
@@ -312,12 +355,18 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   }
   const ss = m > 0 ? sideStats(sides, sample) : null;
   const as = m > 0 ? areaStats(area, sample) : null;
-  const pts = t.points;
-  // The tessellation is that of these very points, so its neighbour graph holds every nearest neighbour.
-  const ce = clarkEvans(pts, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex });
-  if (pts.length / 2 < 2) warnings.push('Clark–Evans and the L-function need at least 2 points.');
-  const radii = ref ? ref.lRadii : lRadii(n, field);
-  const L = lFunction(pts, field, radii);
+  // The tessellation is that of these very points, so its neighbour graph holds every nearest neighbour
+  // (not so for stretched points: there the grid search finds them).
+  const ce = stretch ? clarkEvans(spacingPoints, spacingField) : clarkEvans(spacingPoints, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex });
+  if (spacingPoints.length / 2 < 2) warnings.push('Clark–Evans and the L-function need at least 2 points.');
+  const radii = ref ? ref.lRadii : lRadii(n, spacingField);
+  const L = lFunction(spacingPoints, spacingField, radii);
+  const an = input.anisotropy ?? null;
+  if (an?.spacing === 'stretched') {
+    warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}, direction ${an.directionDeg!.toFixed(0)}°) and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function are computed with x scaled by ${stretch!.sx.toFixed(3)} and y by ${stretch!.sy.toFixed(3)}, which makes the mean cell round, against random seeding in the same stretched field.`);
+  } else if (an?.spacing === 'left out') {
+    warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}) at ${an.directionDeg!.toFixed(0)}°, away from the image axes, and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function assume an isotropic pattern and are left out of the verdict. Rotate the image so that the cells lie along an axis to include them.`);
+  }
   const lewis = m > 0 && as ? lewisLaw(sides, area, sample, as.mean) : null;
   const aw = m > 0 ? aboavWeaireLaw(sides, edge, graph.offsets, graph.index, sample) : null;
   if (enough && lewis && !Number.isFinite(lewis.fit.slope)) warnings.push(`Lewis's law needs at least 2 side classes with ${3} or more cells.`);
@@ -355,7 +404,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   let strongest: string | null = null;
   const regularOnes: string[] = [];
   const irregularOnes: string[] = [];
-  const used = STATISTICS.filter((s) => s.verdict && Number.isFinite(obs[s.key]));
+  const used = STATISTICS.filter((s) => s.verdict && Number.isFinite(obs[s.key]) && !(an?.spacing === 'left out' && 'spacing' in s));
   const quality = assessQuality(input.solidity ?? null, enough && as ? as.cv : null, input.notices);
   if (!quality.ok) {
     verdictText = `Not rated: ${quality.warnings[0]}`;
@@ -366,7 +415,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   } else if (!used.length) {
     verdictText = `No verdict: none of ${STATISTICS.filter((s) => s.verdict).map((s) => s.label).join(', ')} could be computed.`;
   } else {
-    const c = combinedMaxZ(used.map((s) => obs[s.key]), used.map((s) => ref!.values[s.key]));
+    const c = combinedMaxZ(used.map((s) => obs[s.key]), used.map((s) => ref!.values[s.key]), used.map((s) => (s.regular === 'high' ? 1 : -1)));
     if (!c) {
       verdictText = 'No verdict: the reference has no complete replicate.';
     } else {
@@ -380,9 +429,12 @@ export function randomness(input: RandomnessInput): RandomnessResult {
         if (r === 'more regular') regularOnes.push(u.label);
         if (r === 'more irregular') irregularOnes.push(u.label);
       });
-      const strongestRegular = (v < ref.mean[s.key]) === (s.regular === 'low');
+      // Without a significant statistic of its own, the direction is the one the test rests on: the agreement
+      // of the statistics when it carried the test, else the largest single departure.
+      const strongestRegular = c.byAgreement ? c.agreement! > 0 : (v < ref.mean[s.key]) === (s.regular === 'low');
       const head = `combined Monte Carlo test of ${used.map((u) => u.label).join(', ')}: p = ${fmtP(c.p)} at α = ${alpha}, ${ref.options.replicates} replicates`;
-      const detail = `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)}`;
+      const detail = (c.byAgreement ? `carried by the statistics' agreement, ${fmt(Math.abs(c.agreement!))} sd towards ${c.agreement! > 0 ? 'regular' : 'irregular'}; ` : '')
+        + `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)}`;
       if (!(c.p < alpha)) {
         verdict = 'consistent with random seeding';
         verdictText = `${verdict} (${head}; ${detail})`;
@@ -420,6 +472,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
 
   return {
     quality,
+    anisotropy: an,
     verdict,
     verdictText,
     alpha,

@@ -68,6 +68,8 @@ interface StatisticBase {
   verdict: boolean;
   /** Needs at least MIN_INTERIOR_CELLS cells in the observation's sample (else not computed). */
   needsCells: boolean;
+  /** A spacing statistic of the points (assumes an isotropic pattern; computed in the stretched frame for aligned cells). */
+  spacing?: true;
   /** The published value holds only for this layout of the reference (e.g. seeds in the field, not a window). */
   publishedLayout?: 'seeds' | 'window';
 }
@@ -156,14 +158,14 @@ export const STATISTICS = [
     compute: (c, r) => (c.areas ? ksDistance(c.areas, r.areaCdf) : NONE),
   },
   {
-    key: 'clarkEvansR', label: 'Clark–Evans R (edge-corrected)', unit: 'none', pass: 1, tail: 'two', regular: 'high', table: true, verdict: true, needsCells: false,
+    key: 'clarkEvansR', label: 'Clark–Evans R (edge-corrected)', unit: 'none', pass: 1, spacing: true, tail: 'two', regular: 'high', table: true, verdict: true, needsCells: false,
     formula: 'R = r̄ / (0.5/√λ + (0.0514 + 0.041/√N)·P/N), Donnelly edge correction', source: 'Clark & Evans 1954, Ecology 35:445; Donnelly 1978',
     // R = 1 holds for Poisson points in the field (points, bodies); a walls window's centroids are not that.
     published: { value: 1, source: 'Clark & Evans 1954, Ecology 35:445', status: 'pub', note: 'read in text' }, publishedLayout: 'seeds',
     compute: (f) => f.clarkEvans.Rcorrected,
   },
   {
-    key: 'lMaxDeviation', label: 'L-function maximum deviation (px)', unit: 'px', pass: 2, tail: 'upper', regular: null, table: true, verdict: false, needsCells: false,
+    key: 'lMaxDeviation', label: 'L-function maximum deviation (px)', unit: 'px', pass: 2, spacing: true, tail: 'upper', regular: null, table: true, verdict: false, needsCells: false,
     formula: 'max_r |L(r) − L̄(r)|, L̄ the reference mean', source: 'Besag 1977; Diggle 2003, Statistical Analysis of Spatial Point Patterns', published: null,
     compute: (c, r) => maxDeviation(c.l, r.lMean),
   },

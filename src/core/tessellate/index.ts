@@ -1,13 +1,21 @@
 /**
  * The Voronoi tessellation of a point set clipped to a rectangular field, with its Delaunay dual and
  * neighbour graph, on d3-delaunay. One pass per cell, typed outputs allocated once.
+ *
+ * Over 500 lines on purpose: the Tessellator's run, its cell walk, the radial order and the reuse of its
+ * typed arrays from run to run share private state that the Monte Carlo loop depends on for speed; split
+ * into modules, that state would have to be exposed or passed around on every call.
  */
 import { Delaunay } from 'd3-delaunay';
-import { DegeneratePointsError, SettingsError, TooFewCellsError } from '../errors';
+import { DegeneratePointsError } from '../errors';
 import type { Rect } from '../types';
+import { mayBeFlat, refuseDegenerate, validatePoints } from './checks';
+import { clipToRect, polygonMeasures } from './polygon';
+import { tessellateFew } from './few';
 import type { Tessellation } from './types';
 
 export type { Tessellation } from './types';
+export { validatePoints } from './checks';
 
 /**
  * Two Voronoi vertices closer than this (in units of the mean point spacing) are one vertex: the edge
@@ -43,32 +51,6 @@ class Buffer64 {
 }
 
 /**
- * Validates a point set and a field for {@link tessellate}; throws the typed error tessellate would.
- * @param points interleaved x, y (px)
- * @param field the field (px)
- */
-export function validatePoints(points: Float64Array, field: Rect): void {
-  if (!(field.x1 > field.x0) || !(field.y1 > field.y0) || ![field.x0, field.x1, field.y0, field.y1].every(Number.isFinite)) {
-    throw new SettingsError(`The field must be a rectangle with x1 > x0 and y1 > y0; got ${JSON.stringify(field)}.`);
-  }
-  if (points.length % 2 !== 0) throw new DegeneratePointsError('Points must be interleaved x, y pairs; the array has an odd length.');
-  const n = points.length / 2;
-  if (n < 3) throw new TooFewCellsError(`A tessellation needs at least 3 points; got ${n}. Detect more cells or use a larger field.`);
-  for (let i = 0; i < n; i++) {
-    const x = points[2 * i]!;
-    const y = points[2 * i + 1]!;
-    if (!Number.isFinite(x) || !Number.isFinite(y)) {
-      throw new DegeneratePointsError(`Point ${i + 1} is not a finite number pair (${x}, ${y}); remove it.`);
-    }
-    if (x < field.x0 || x > field.x1 || y < field.y0 || y > field.y1) {
-      throw new DegeneratePointsError(
-        `Point ${i + 1} at (${x}, ${y}) px lies outside the field [${field.x0}, ${field.x1}] x [${field.y0}, ${field.y1}]; enlarge the field or drop the point.`,
-      );
-    }
-  }
-}
-
-/**
  * Voronoi tessellation of `points` clipped to `field`, with the Delaunay triangles and the neighbour graph.
  *
  * Method: the points are translated and scaled so that their mean spacing is 1 (which makes every
@@ -89,6 +71,8 @@ export function validatePoints(points: Float64Array, field: Rect): void {
  *   outside points; SettingsError an empty field
  */
 export function tessellate(points: Float64Array, field: Rect): Tessellation {
+  // One or two points: nothing to triangulate, the field is split directly.
+  if (points.length === 2 || points.length === 4) return tessellateFew(points, field);
   return new Tessellator(false).run(points, field, 'polygons') as Tessellation;
 }
 
@@ -128,6 +112,8 @@ export class Tessellator {
   private buf = new Buffer64(256);
   private startSorted: Int32Array = new Int32Array(0);
   private keep: Uint8Array = new Uint8Array(0);
+  /** 1 for the points on the convex hull of the last run (sorted order). */
+  private onHull: Uint8Array = new Uint8Array(0);
   private arrays: {
     area: Float64Array; perimeter: Float64Array; sides: Int32Array; edge: Uint8Array; bbox: Float64Array; centroid: Float64Array;
     degree: Int32Array; fill: Int32Array; neighbours: Int32Array | null;
@@ -198,6 +184,7 @@ export class Tessellator {
       this.sorted = new Float64Array(2 * n);
       this.startSorted = new Int32Array(n);
       this.keep = new Uint8Array(6 * n);
+      this.onHull = new Uint8Array(n);
       this.delaunay = null;
       this.voronoi = null;
       this.arrays = null;
@@ -231,20 +218,25 @@ export class Tessellator {
       }
     }
 
-    let delaunay: Delaunay<Float64Array>;
-    if (this.delaunay) {
-      delaunay = this.delaunay.update();
+    if (mayBeFlat(sorted, n, Wn, Hn)) refuseDegenerate(sorted, points, n);
+
+    // d3-delaunay's public interface only: update() re-triangulates the moved points in place, and the
+    // Voronoi diagram's update() does that and recomputes the circumcentres.
+    let delaunay = this.delaunay;
+    let voronoi = this.voronoi;
+    if (delaunay && voronoi && voronoi.xmin === 0 && voronoi.ymin === 0 && voronoi.xmax === Wn && voronoi.ymax === Hn) {
+      voronoi.update();
+    } else if (delaunay) {
+      delaunay.update();
+      voronoi = delaunay.voronoi([0, 0, Wn, Hn]);
     } else {
       delaunay = new Delaunay(sorted);
-    }
-    if ((delaunay as unknown as { collinear?: Int32Array }).collinear || delaunay.hull.length < 3) {
-      if (delaunay.hull.length < 3 && distinctCount(points) < 3) {
-        throw new DegeneratePointsError(`Only ${distinctCount(points)} of the ${n} points are distinct; a tessellation needs 3 distinct points not on one line.`);
-      }
-      throw new DegeneratePointsError(`All ${n} points lie on one line; a tessellation needs points spread in two dimensions.`);
+      voronoi = delaunay.voronoi([0, 0, Wn, Hn]);
     }
     const { triangles, halfedges, inedges } = delaunay;
-    const hullIndex = (delaunay as unknown as { _hullIndex: Int32Array })._hullIndex;
+    const onHull = this.onHull;
+    onHull.fill(0);
+    for (const k of delaunay.hull) onHull[k] = 1;
     for (let k = 0; k < n; k++) {
       if (inedges[k] === -1) {
         const i = perm[k]!;
@@ -253,17 +245,6 @@ export class Tessellator {
           `Points ${Math.min(i, j) + 1} and ${Math.max(i, j) + 1} coincide at (${points[2 * i]}, ${points[2 * i + 1]}) px; remove or merge duplicate points first.`,
         );
       }
-    }
-
-    let voronoi = this.voronoi;
-    if (voronoi && this.delaunay) {
-      voronoi.xmin = 0;
-      voronoi.ymin = 0;
-      voronoi.xmax = Wn;
-      voronoi.ymax = Hn;
-      (voronoi as unknown as { _init(): void })._init();
-    } else {
-      voronoi = delaunay.voronoi([0, 0, Wn, Hn]);
     }
     this.delaunay = delaunay;
     this.voronoi = voronoi;
@@ -305,7 +286,7 @@ export class Tessellator {
       const i = perm[k]!;
       if (!keepPolygons) buf.length = 0;
       const start = buf.length;
-      let interior = hullIndex[k] === -1;
+      let interior = onHull[k] === 0;
       if (interior) {
         const e0 = inedges[k]!;
         // The vertex before the first belongs to the triangle across the incoming halfedge.
@@ -344,7 +325,7 @@ export class Tessellator {
       }
       if (!interior) {
         scratch.length = 0;
-        if (hullIndex[k] === -1) {
+        if (onHull[k] === 0) {
           // A bounded cell that crosses the border: its own polygon clipped to the field (exact for convex
           // cells, and much cheaper than the general clipping of unbounded cells).
           const e0 = inedges[k]!;
@@ -354,7 +335,7 @@ export class Tessellator {
             scratch.push(cc[2 * t]!, cc[2 * t + 1]!);
             e = halfedges[e % 3 === 2 ? e - 2 : e + 1]!;
           } while (e !== e0);
-          clipToBox(scratch, spare, Wn, Hn);
+          clipToRect(scratch, spare, 0, 0, Wn, Hn);
         } else {
           voronoi.renderCell(k, ctx);
         }
@@ -473,94 +454,6 @@ function radialOrder(points: Float64Array, n: number): Int32Array {
   const perm = new Int32Array(n);
   for (let i = 0; i < n; i++) perm[count[ring[i]!]!++] = i;
   return perm;
-}
-
-function distinctCount(points: Float64Array): number {
-  const seen = new Set<string>();
-  for (let i = 0; i < points.length; i += 2) seen.add(`${points[i]},${points[i + 1]}`);
-  return seen.size;
-}
-
-/** Area, perimeter, centroid and bounding box of polygon data[start..end) into slot i (normalised units). */
-function polygonMeasures(
-  data: Float64Array, start: number, end: number, i: number,
-  area: Float64Array, perimeter: Float64Array, centroid: Float64Array, bbox: Float64Array,
-): void {
-  // Coordinates relative to the first vertex keep the shoelace sums free of cancellation.
-  const ox = data[start]!;
-  const oy = data[start + 1]!;
-  let a2 = 0;
-  let cx = 0;
-  let cy = 0;
-  let per = 0;
-  let minx = ox;
-  let maxx = ox;
-  let miny = oy;
-  let maxy = oy;
-  let px = data[end - 2]! - ox;
-  let py = data[end - 1]! - oy;
-  for (let k = start; k < end; k += 2) {
-    const X = data[k]!;
-    const Y = data[k + 1]!;
-    if (X < minx) minx = X;
-    if (X > maxx) maxx = X;
-    if (Y < miny) miny = Y;
-    if (Y > maxy) maxy = Y;
-    const x = X - ox;
-    const y = Y - oy;
-    const cr = px * y - x * py;
-    a2 += cr;
-    cx += (px + x) * cr;
-    cy += (py + y) * cr;
-    const ddx = x - px;
-    const ddy = y - py;
-    per += Math.sqrt(ddx * ddx + ddy * ddy);
-    px = x;
-    py = y;
-  }
-  area[i] = Math.abs(a2) / 2;
-  perimeter[i] = per;
-  centroid[2 * i] = a2 !== 0 ? ox + cx / (3 * a2) : ox;
-  centroid[2 * i + 1] = a2 !== 0 ? oy + cy / (3 * a2) : oy;
-  bbox[4 * i] = minx;
-  bbox[4 * i + 1] = miny;
-  bbox[4 * i + 2] = maxx;
-  bbox[4 * i + 3] = maxy;
-}
-
-/**
- * Clips the convex polygon in `poly` (flat x, y) to [0, W] x [0, H] in place, by Sutherland–Hodgman
- * (Sutherland & Hodgman 1974, Comm. ACM 17:32; pub, memory). Crossings get the bound as exact coordinate.
- */
-function clipToBox(poly: number[], tmp: number[], W: number, H: number): void {
-  clipHalf(poly, tmp, 0, 0, 1);
-  clipHalf(tmp, poly, 0, W, -1);
-  clipHalf(poly, tmp, 1, 0, 1);
-  clipHalf(tmp, poly, 1, H, -1);
-}
-
-/** Keeps the part of src with sign·(coord[axis] − c) ≥ 0, into dst. */
-function clipHalf(src: number[], dst: number[], axis: 0 | 1, c: number, sign: 1 | -1): void {
-  dst.length = 0;
-  const m = src.length / 2;
-  if (m === 0) return;
-  let ax = src[2 * m - 2]!;
-  let ay = src[2 * m - 1]!;
-  let da = sign * ((axis === 0 ? ax : ay) - c);
-  for (let j = 0; j < m; j++) {
-    const bx = src[2 * j]!;
-    const by = src[2 * j + 1]!;
-    const db = sign * ((axis === 0 ? bx : by) - c);
-    if ((da >= 0) !== (db >= 0)) {
-      const t = da / (da - db);
-      if (axis === 0) dst.push(c, ay + t * (by - ay));
-      else dst.push(ax + t * (bx - ax), c);
-    }
-    if (db >= 0) dst.push(bx, by);
-    ax = bx;
-    ay = by;
-    da = db;
-  }
 }
 
 /**

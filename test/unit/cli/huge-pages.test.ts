@@ -48,5 +48,5 @@ describe('huge pages for the command line', () => {
       expect(bad.code).toBe(1);
       expect(bad.err).toContain('does not exist');
     }
-  }, 60_000);
+  });
 });

@@ -54,9 +54,13 @@ describe('Jeffries count on hand-made tilings (ASTM E112 half rule, pub read in 
 
   it('rectangle with the unbiased option: the corner rule already is the −1 correction (4·¼ = 4·½ − 1, derived), N unchanged', () => {
     const lab = squareGrid(50, 50, 10);
-    const c = jeffriesCount(lab, { x0: 0, y0: 0, x1: 50, y1: 50 }, { shape: 'rectangle', x0: 5, y0: 5, x1: 45, y1: 45 }, { unbiased: true });
+    // 9 inside + 12/2 cut + 4 corners at ¼ = 9 + 12/2 + 4/2 − 1 = 16 (derived): the option changes nothing.
+    const fig = { shape: 'rectangle' as const, x0: 5, y0: 5, x1: 45, y1: 45 };
+    const c = jeffriesCount(lab, { x0: 0, y0: 0, x1: 50, y1: 50 }, fig, { unbiased: true });
+    const plain = jeffriesCount(lab, { x0: 0, y0: 0, x1: 50, y1: 50 }, fig);
+    expect([c.inside, c.cut, c.corner]).toEqual([9, 12, 4]);
     expect(c.count).toBe(16);
-    expect(9 + 12 / 2 + 4 / 2 - 1).toBe(16);
+    expect(plain.count).toBe(16);
   });
 
   it('rotating the image by 90° leaves a centred circle count unchanged (derived invariant)', () => {

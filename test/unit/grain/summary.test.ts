@@ -1,5 +1,8 @@
+import type { Summary } from '../../../src/core/summary';
 import { describe, expect, it } from 'vitest';
-import { grainSize, grainSizeCsvRow, grainSizeSummary, gFromNA } from '../../../src/core/grain/index';
+import Papa from 'papaparse';
+import { summaryCsv } from '../../../src/core/export/index';
+import { grainSize, grainSizeSummary, gFromNA } from '../../../src/core/grain/index';
 import { defaultSettings } from '../../../src/core/settings';
 import { squareGrid } from './helpers';
 
@@ -20,10 +23,17 @@ describe('summary.json grainSize and summary.csv columns', () => {
     expect(s.meanArea).toHaveProperty('G');
     // A square grid: every grain inside the field is 100 µm², Ā = 1e-4 mm² gives G = 10.33 exactly (derived).
     expect(r.meanArea!.G).toBeCloseTo(-3.3223 * Math.log10(1e-4) - 2.955, 9);
-    const row = grainSizeCsvRow(r);
-    expect(row.grain_G).toBe(s.G);
-    expect(row.grain_planimetric_G).toBe(s.planimetric.G);
-    expect(Object.values(row).every((v) => v === null || typeof v === 'number' || typeof v === 'string')).toBe(true);
+    // summary.csv (the writer the command line and the app use) carries the same G figures as summary.json.
+    const csv = summaryCsv([{ name: 'grid.png', summary: { grainSize: s } as unknown as Summary }]);
+    const rows = Papa.parse<Record<string, string>>(csv.trim(), { header: true }).data;
+    expect(rows).toHaveLength(1);
+    const row = rows[0]!;
+    expect(row.image).toBe('grid.png');
+    expect(Number(row['grainSize.planimetric.G'])).toBe(s.planimetric.G);
+    expect(Number(row['grainSize.intercept.G'])).toBe(s.intercept.G);
+    expect(Number(row['grainSize.iso643'])).toBe(s.iso643);
+    // G 10.33 from Ā = 100 µm² (derived above), to 0.1 as summary.json gives it.
+    expect(row['grainSize.meanArea.G']).toBe('10.3');
   });
 
   it('the unbiased correction setting is applied and stated (Li & Zhou 2011; pub, read in text)', () => {

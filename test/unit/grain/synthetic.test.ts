@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Delaunay } from 'd3-delaunay';
 import { loadCv } from '../../../src/core/cv/index';
-import { grainSize, grainSizeSummary, interceptCount, jeffriesCount, centredFigure, testPatterns, combineFields } from '../../../src/core/grain/index';
+import { grainSize, grainSizeSummary, interceptCount, jeffriesCount, centredFigure, testPatterns } from '../../../src/core/grain/index';
 import { segmentWalls } from '../../../src/core/segment/walls';
 import { defaultSettings } from '../../../src/core/settings';
 import { synthesize } from '../../../src/core/synth/index';
@@ -31,12 +31,12 @@ describe('grain size on a synthetic walls image with known truth', () => {
     expect(Math.abs(rs.intercept!.anisotropy!.ratio - 1)).toBeLessThan(0.1);
     const s = grainSizeSummary(rs) as Record<string, any>;
     expect(s.planimetric.G).toBeCloseTo(rs.planimetric!.G, 1);
-    expect(typeof s.planimetric.NA_per_mm2).toBe('number');
-    expect(typeof s.intercept.meanIntercept_um).toBe('number');
-    expect(typeof s.meanArea.G).toBe('number');
-    expect(Array.isArray(s.ci95)).toBe(true);
-    expect(typeof s.relativeAccuracyPct).toBe('number');
-    expect(typeof s.iso643).toBe('number');
+    // Finite numbers (typeof would let NaN through).
+    for (const v of [s.planimetric.NA_per_mm2, s.intercept.meanIntercept_um, s.meanArea.G, s.relativeAccuracyPct, s.iso643]) expect(Number.isFinite(v)).toBe(true);
+    expect(s.ci95).toHaveLength(2);
+    expect(s.ci95[0]).toBeLessThan(s.ci95[1]);
+    // ISO 643 index = G_ASTM − 0.046 for the same count (ISO 643; pub, memory), G to 0.1 or finer.
+    expect(Math.abs(s.iso643 - (rs.G! - 0.046))).toBeLessThan(0.06);
   });
 
   it('Jeffries N_A on the true tiling matches the number of seeds per area in the test circle (derived: one grain per seed)', () => {
@@ -77,23 +77,5 @@ describe('grain size on a synthetic walls image with known truth', () => {
     const b = grainSize({ labels: synth.truth, umPerPx: 2 * umPerPx, field, pattern: 'walls', settings: s });
     expect(a.planimetric!.G - b.planimetric!.G).toBeCloseTo(2 * 3.321928 * Math.log10(2), 9);
     expect(a.intercept!.G - b.intercept!.G).toBeCloseTo(6.643856 * Math.log10(2), 9);
-  });
-
-  it('several fields: statistics of per-field N_A, G from their mean (ASTM E112 statistics section)', () => {
-    const s = defaultSettings();
-    const rs = [2, 3, 4, 5, 6].map((seed) => {
-      const im = synthesize({ pattern: 'walls', cells: 150, width: 360, height: 360, order: 'regular', seed });
-      return grainSize({ labels: im.truth, umPerPx, field: { x0: 0, y0: 0, x1: 360, y1: 360 }, pattern: 'walls', settings: s });
-    });
-    const c = combineFields(rs);
-    expect(c.fields).toBe(5);
-    const na = rs.map((r) => r.planimetric!.NA_per_mm2);
-    const mean = na.reduce((x, y) => x + y, 0) / 5;
-    expect(c.planimetric!.NA_per_mm2.mean).toBeCloseTo(mean, 9);
-    expect(c.planimetric!.G).toBeCloseTo(3.321928 * Math.log10(mean) - 2.954, 9);
-    // 150 cells in 360² px at 0.5 µm/px: the seeds' density gives G = 3.321928·log10(150/0.0324) − 2.954 = 9.2 (derived).
-    expect(Math.abs(c.planimetric!.G! - (3.321928 * Math.log10(150 / 0.0324) - 2.954))).toBeLessThan(0.15);
-    expect(c.planimetric!.ci95![0]).toBeLessThan(c.planimetric!.G!);
-    expect(c.planimetric!.ci95![1]).toBeGreaterThan(c.planimetric!.G!);
   });
 });

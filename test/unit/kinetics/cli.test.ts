@@ -24,6 +24,11 @@ beforeAll(async () => {
   vi.spyOn(process.stderr, 'write').mockImplementation(() => true);
   vi.spyOn(process.stdout, 'write').mockImplementation(() => true);
 });
+/** Indices of the frames whose fraction lies strictly inside (lo, hi). */
+function framesInRange(json: { frames: { fraction: number }[] }, lo: number, hi: number): number[] {
+  return json.frames.flatMap((f, j) => (f.fraction > lo && f.fraction < hi ? [j] : []));
+}
+
 afterAll(async () => {
   vi.restoreAllMocks();
   await rm(dir, { recursive: true, force: true });
@@ -42,7 +47,8 @@ describe('tessellab kinetics', () => {
     expect(json.avrami.ci95.n).toHaveLength(2);
     expect(json.fit.method).toBe('nonlinear');
     expect(json.frames).toHaveLength(times.length);
-    expect(json.settings.kinetics.fitMin).toBe(0.02);
+    // The settings it records are the ones the fit used (frames with fitMin < f < fitMax).
+    expect(json.fit.avramiPlot.frames).toEqual(framesInRange(json, json.settings.kinetics.fitMin, json.settings.kinetics.fitMax));
     // derived: site saturation, n = 2 (docs/check-values.md §4); a small field, so a loose tolerance
     expect(Math.abs(json.avrami.n - 2)).toBeLessThan(0.2);
     const settings = JSON.parse(await readFile(join(out, 'settings.json'), 'utf8'));
@@ -69,7 +75,9 @@ describe('tessellab kinetics', () => {
     expect(json.phase).toEqual({ threshold: 120, source: 'manual', phase: 'bright' });
     expect(json.fit.method).toBe('avrami-plot');
     expect(json.avrami.method).toBe('avrami-plot');
-    expect(json.settings.kinetics.fitMin).toBe(0.05);
+    // --fit-min 0.05 changes which frames the fit takes: exactly those with 0.05 < f < 0.98 (default upper end).
+    expect(json.fit.avramiPlot.frames).toEqual(framesInRange(json, 0.05, 0.98));
+    expect(framesInRange(json, 0.05, 0.98)).not.toEqual(framesInRange(json, 0.02, 0.98));
   });
 
   it('--final-analysis measures the mosaic of the last frame as a walls pattern', async () => {

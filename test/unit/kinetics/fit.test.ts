@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { SeriesError } from '../../../src/core/errors';
 import { fitAvrami, fitJmakNonlinear, halfTime, jmak, rateK } from '../../../src/core/kinetics/index';
-import { t975 } from '../../../src/core/kinetics/tdist';
+import { t975 } from '../../../src/core/stats/dist';
 
 const times = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 12, 14];
 

@@ -22,19 +22,38 @@ const cases: [string, ReferenceOptions][] = [
   }],
 ];
 
-/** A pool on this thread that draws each chunk as a worker would, after a delay, optionally failing some. */
-function fakePool(size: number, fail: (r0: number) => boolean = () => false): ReferencePool & { calls: number } {
+/**
+ * A pool on this thread that draws each chunk as a worker would, on a later turn of the event loop,
+ * optionally failing some. `runs` holds every promise it has handed out, so that a test can wait for all of
+ * them to settle.
+ */
+function fakePool(size: number, fail: (r0: number) => boolean = () => false): ReferencePool & { calls: number; runs: Promise<ReplicateBatch>[] } {
   const pool = {
     size,
     calls: 0,
+    runs: [] as Promise<ReplicateBatch>[],
     run(plan: ReferencePlan, r0: number, r1: number): Promise<ReplicateBatch> {
       pool.calls++;
-      return new Promise((resolve, reject) =>
+      const p = new Promise<ReplicateBatch>((resolve, reject) =>
         setTimeout(() => (fail(r0) ? reject(new Error('worker lost')) : resolve(structuredClone(drawReplicates(plan, r0, r1)))), 2),
       );
+      pool.runs.push(p);
+      return p;
     },
   };
   return pool;
+}
+
+/**
+ * Resolves once every chunk the pool was given has settled and the job has had its turn after each: a
+ * job that hands out another chunk when one lands does so synchronously in the continuation of that run
+ * (which was registered before this wait's), so a new promise would show up in `runs` and be waited for too.
+ */
+async function allRunsSettled(pool: { runs: Promise<unknown>[] }): Promise<void> {
+  for (let seen = -1; seen !== pool.runs.length; ) {
+    seen = pool.runs.length;
+    await Promise.allSettled(pool.runs);
+  }
 }
 
 describe('replicates split into batches give the same reference as one pass', () => {
@@ -92,13 +111,25 @@ describe('startReference', () => {
   });
   it('a cancelled job gives its workers no further chunk', async () => {
     const pool = fakePool(1);
-    const job = startReference(cases[1]![1], pool);
+    let landed = 0;
+    const job = startReference({ ...cases[1]![1], onProgress: () => landed++ }, pool);
     const started = pool.calls;
     job.cancel();
-    await new Promise((r) => setTimeout(r, 60));
-    // The chunks already sent land; no slot takes another.
+    // Wait for the chunks already sent to land (events, not a fixed time); no slot takes another.
+    await allRunsSettled(pool);
     expect(started).toBe(CHUNKS_IN_FLIGHT);
+    expect(landed).toBe(started);
     expect(pool.calls).toBe(started);
+  });
+  it('a job that is not cancelled goes on giving chunks to its workers as they land (the check above can fail)', async () => {
+    const pool = fakePool(1);
+    let done = 0;
+    startReference({ ...cases[1]![1], onProgress: (f) => (done = f) }, pool);
+    const started = pool.calls;
+    await allRunsSettled(pool);
+    // Nobody called result(): the worker slots alone drew every replicate.
+    expect(pool.calls).toBeGreaterThan(started);
+    expect(done).toBe(1);
   });
   it('chunks: about 24 per thread, at least one replicate each', () => {
     expect(chunkSize(199, 2)).toBe(5);

@@ -201,13 +201,25 @@ describe('tessellate: Euler and the Weaire sum rule on a periodic tessellation',
 
 describe('tessellate: bad input', () => {
   const f: Rect = { x0: 0, y0: 0, x1: 10, y1: 10 };
-  it('fewer than 3 points', () => {
-    expect(() => tessellate(Float64Array.from([1, 1, 2, 2]), f)).toThrow(TooFewCellsError);
-    expect(() => tessellate(Float64Array.from([1, 1, 2, 2]), f)).toThrow(/at least 3 points; got 2/);
+  it('fewer than 3 points: the triangulating engine refuses them (tessellate() splits the field itself, see few.test.ts)', async () => {
+    const { tessellateCells } = await import('../../../src/core/tessellate');
+    expect(() => tessellateCells(Float64Array.from([1, 1, 2, 2]), f)).toThrow(TooFewCellsError);
+    expect(() => tessellateCells(Float64Array.from([1, 1, 2, 2]), f)).toThrow(/at least 3 points; got 2/);
   });
   it('all collinear', () => {
     expect(() => tessellate(Float64Array.from([1, 1, 2, 2, 3, 3, 4, 4, 5, 5]), f)).toThrow(DegeneratePointsError);
     expect(() => tessellate(Float64Array.from([1, 1, 2, 2, 3, 3, 4, 4, 5, 5]), f)).toThrow(/one line/);
+  });
+  it('points within a hair of one line are refused as on one line, and left where they are', () => {
+    // 40 points along the diagonal, each moved off it by at most 1e-13 px (derived: a triangle of them then
+    // has a doubled area below 2e-12 in units of the mean spacing, under the flatness rule's 1e-10).
+    const hair = Float64Array.from({ length: 80 }, (_, k) => 0.2 + (k >> 1) * 0.24 + (k % 2 ? 1 : -1) * ((k * 7919) % 11 - 5) * 2e-14);
+    const copy = hair.slice();
+    expect(() => tessellate(hair, f)).toThrow(/All 40 points lie on one line/);
+    expect(Array.from(hair)).toEqual(Array.from(copy));
+    // The same points moved across the line by up to 0.05 px span a field that is tiled exactly.
+    const spread = Float64Array.from({ length: 80 }, (_, k) => 0.2 + (k >> 1) * 0.24 + (k % 2 ? 1 : -1) * ((k * 7919) % 11 - 5) * 1e-2);
+    expect(sum(tessellate(spread, f).area)).toBeCloseTo(100, 9);
   });
   it('duplicate points are refused and named', () => {
     expect(() => tessellate(Float64Array.from([1, 1, 5, 2, 3, 7, 5, 2, 8, 8]), f)).toThrow(/Points 2 and 4 coincide/);

@@ -13,8 +13,9 @@ describe('session store', () => {
     await saveEntry(entry('a', 1));
     const all = await loadEntries();
     expect(all.map((e) => e.id)).toEqual(['a', 'b']);
-    expect(all[0].ops).toEqual([{ kind: 'remove', cell: 3 }]);
-    expect(all[0].settings.walls.threshold).toBe('otsu');
+    // The whole record comes back as it was stored: settings, edit history and all.
+    expect(all[0]).toEqual(entry('a', 1));
+    expect(all[1]).toEqual(entry('b', 2));
     await deleteEntry('a');
     expect((await loadEntries()).map((e) => e.id)).toEqual(['b']);
   });

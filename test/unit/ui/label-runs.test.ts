@@ -4,7 +4,7 @@
  * as spans, and the number of runs as a plain count of label changes along the rows (derived).
  */
 import { describe, expect, it } from 'vitest';
-import { forEachSpan, labelRuns, runLabelAt } from '../../../src/core/labelRuns';
+import { forEachSpan, labelRuns, rowRuns, runLabelAt } from '../../../src/core/labelRuns';
 import { synthesize } from '../../../src/core/synth';
 import type { LabelImage } from '../../../src/core/types';
 
@@ -54,6 +54,18 @@ describe('label runs', () => {
     forEachSpan(r, 1, -3, 0, (x0, x1, y) => none.push([x0, x1, y]));
     forEachSpan(r, 1, 2, 9, (x0, x1, y) => none.push([x0, x1, y]));
     expect(none).toEqual([]);
+  });
+
+  it('one row split by rowRuns: the runs with the row end as last start', () => {
+    // Row 1 of 0 0 | 3 3 0 5 5 5: runs [0, 2) of 3, [2, 3) of 0, [3, 6) of 5.
+    const L = Int32Array.from([0, 0, 0, 0, 0, 0, 3, 3, 0, 5, 5, 5]);
+    const starts = new Int32Array(7).fill(-1);
+    const labs = new Int32Array(6).fill(-1);
+    const nr = rowRuns(L, 6, 6, starts, labs);
+    expect(nr).toBe(3);
+    expect(Array.from(starts.subarray(0, nr + 1))).toEqual([0, 2, 3, 6]);
+    expect(Array.from(labs.subarray(0, nr))).toEqual([3, 0, 5]);
+    expect(rowRuns(L, 0, 0, starts, labs)).toBe(0);
   });
 
   let seed = 11;
