@@ -38,14 +38,14 @@ export function parseArgs(argv: string[], valued: string[], flags: string[] = []
 /** A positive finite number in decimal notation from an option ("0x10" is not 16), or a SettingsError naming it. */
 export function positiveNumber(v: string, name: string): number {
   const x = parseDecimal(v);
-  if (!Number.isFinite(x) || x <= 0) throw new SettingsError(`--${name} must be a positive number in decimal notation (e.g. 0.65 or 6.5e-1); got "${v}".`);
+  if (!Number.isFinite(x) || x <= 0) throw new SettingsError(`--${name} must be a positive number; got "${v}" (write it in decimal, e.g. 0.65 or 6.5e-1).`);
   return x;
 }
 
 /** A positive whole number in plain digits from an option ("1e3", "2.0" and "0x10" are refused). */
 export function positiveInt(v: string, name: string): number {
   const x = parseWhole(v);
-  if (!Number.isInteger(x) || x <= 0) throw new SettingsError(`--${name} must be a positive whole number in plain digits; got "${v}".`);
+  if (!Number.isInteger(x) || x <= 0) throw new SettingsError(`--${name} must be a positive whole number; got "${v}" (write it in plain digits).`);
   return x;
 }
 

@@ -92,9 +92,9 @@ describe('numbers in decimal notation only', () => {
   });
 
   it('--um-per-px 0x10 and --cells 1e2 are refused, naming the option', () => {
-    expect(() => positiveNumber('0x10', 'um-per-px')).toThrow('--um-per-px must be a positive number in decimal notation (e.g. 0.65 or 6.5e-1); got "0x10".');
+    expect(() => positiveNumber('0x10', 'um-per-px')).toThrow('--um-per-px must be a positive number; got "0x10" (write it in decimal, e.g. 0.65 or 6.5e-1).');
     expect(positiveNumber('0.65', 'um-per-px')).toBe(0.65);
-    expect(() => positiveInt('1e2', 'cells')).toThrow(/--cells must be a positive whole number in plain digits; got "1e2"/);
+    expect(() => positiveInt('1e2', 'cells')).toThrow('--cells must be a positive whole number; got "1e2" (write it in plain digits).');
     expect(() => positiveInt('2.5', 'replicates')).toThrow(SettingsError);
   });
 
@@ -142,7 +142,7 @@ describe('the command line with hostile settings and counts', () => {
   it('--um-per-px 0x10 and 1e308 are refused before any file is read', async () => {
     const hex = await run(['analyze', join(dir, 'nothing.png'), '--um-per-px', '0x10', '--out', join(dir, 'o')]);
     expect(hex.code).toBe(1);
-    expect(hex.err).toMatch(/^tessellab analyze: --um-per-px must be a positive number in decimal notation/);
+    expect(hex.err).toMatch(/^tessellab analyze: --um-per-px must be a positive number; got "0x10" \(write it in decimal/);
     const huge = await run(['analyze', join(dir, 'nothing.png'), '--um-per-px', '1e308', '--out', join(dir, 'o')]);
     expect(huge.code).toBe(1);
     expect(huge.err).toMatch(/^tessellab analyze: The pixel size 1e\+308 µm\/px is outside the plausible range .*\(1e-5 to 1e4 µm\/px\)/);
@@ -162,7 +162,7 @@ describe('the command line with hostile settings and counts', () => {
     const cases: [string[], RegExp][] = [
       [['--cells', '100000000', '--size', '100x100'], /number of cells must be a whole number from 3 to 1000000; got 100000000/],
       [['--cells', '120', '--size', '100x100', '--replicates', '100000'], /replicates must be a whole number from 1 to 9999/],
-      [['--cells', '120.5', '--size', '100x100'], /--cells must be a positive whole number in plain digits; got "120\.5"/],
+      [['--cells', '120.5', '--size', '100x100'], /--cells must be a positive whole number; got "120\.5" \(write it in plain digits\)/],
       [['--cells', '120', '--size', '100x100', '--replicates', '1e3'], /--replicates must be a positive whole number/],
       [['--cells', '120', '--size', '100x100', '--seed', '0x10'], /--seed must be a whole number/],
     ];
