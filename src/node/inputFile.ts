@@ -5,7 +5,7 @@
  */
 import { constants } from 'node:fs';
 import { open } from 'node:fs/promises';
-import { SettingsError } from '../core/errors';
+import { MissingError, SettingsError } from '../core/errors';
 
 /** The largest input file read, in bytes (2 GiB less one: also the most one read of Node's gives). */
 export const MAX_INPUT_BYTES = 2 ** 31 - 1;
@@ -25,9 +25,9 @@ export async function readInputFile(path: string, name = path): Promise<Uint8Arr
     fh = await open(path, constants.O_RDONLY | constants.O_NONBLOCK);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
+    if (code === 'ENOENT') throw new MissingError(`${name} does not exist; check the path.`);
     throw new SettingsError(
-      code === 'ENOENT' ? `${name} does not exist; check the path.`
-        : code === 'EISDIR' ? `${name} is a folder, not an image.`
+      code === 'EISDIR' ? `${name} is a folder, not an image.`
           : code === 'EACCES' || code === 'EPERM' ? `${name} cannot be read (permission denied); check the file's permissions.`
             : `${name} cannot be read (${code ?? 'error'}); check the path.`,
     );

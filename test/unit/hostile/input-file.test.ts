@@ -59,3 +59,26 @@ describe('tessellab kinetics with /dev/zero or a pipe among the frames', () => {
     }
   });
 });
+
+describe('tessellab analyze with /dev/zero or a pipe in a batch', () => {
+  it.skipIf(!existsSync('/dev/zero') || !haveFifo)('each refused in one line, the good image still analysed', async () => {
+    let err = '';
+    vi.spyOn(process.stderr, 'write').mockImplementation((s: string | Uint8Array) => ((err += String(s)), true));
+    vi.spyOn(process.stdout, 'write').mockImplementation(() => true);
+    const out = join(dir, 'a');
+    const code = await main(['analyze', '/dev/zero', fifo, 'sample-images/tissue-regular.png', '--settings', '/dev/zero', '--out', out]).catch((e: unknown) => e);
+    vi.restoreAllMocks();
+    // The settings file itself is /dev/zero: refused before any image, in one line.
+    expect(code).toBe(1);
+    expect(err).toMatch(/the settings file \/dev\/zero is a device, not a file/);
+    err = '';
+    vi.spyOn(process.stderr, 'write').mockImplementation((s: string | Uint8Array) => ((err += String(s)), true));
+    vi.spyOn(process.stdout, 'write').mockImplementation(() => true);
+    const code2 = await main(['analyze', '/dev/zero', fifo, 'sample-images/tissue-regular.png', '--out', out]);
+    vi.restoreAllMocks();
+    expect(code2).toBe(1);
+    expect(err).toMatch(/zero: .*is a device, not a file|\/dev\/zero is a device, not a file/);
+    expect(err).toMatch(/frames\.fifo is a pipe, not a file|frames\.fifo: .*pipe/);
+    expect(existsSync(join(out, 'tissue-regular.summary.json'))).toBe(true);
+  });
+});
