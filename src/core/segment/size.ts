@@ -1,52 +1,55 @@
 /**
- * The size hint: the typical cell diameter (px) read from the image itself, which sets the scale of the
- * walls segmentation's automatic settings (smoothing, marker dynamic, smallest cell).
+ * The size hint: the typical cell diameter (px) read from the image itself, which scales the walls
+ * segmentation's automatic settings (the marker dynamic; the smallest cell when the diameter is set).
  *
- * A cellular pattern repeats at about its cell spacing, so the power of its spectrum, summed over rings of
- * equal frequency, peaks at a wavelength near that spacing (the structure factor's first peak; trade). For a
- * tiling, the ring of the peak is taken on the prepared (flattened) image; the wavelength λ of the peak is
- * turned into the equivalent-circle diameter of a cell by D = 1.15 λ: a hexagonal tiling of centre spacing a
- * has its first spectral peak at λ = (√3/2) a and cells of equivalent diameter a·√(2√3/π) = 1.05 a, so
- * D/λ = 1.21 (derived); for Poisson–Voronoi tilings the peak sits nearer the mean spacing and the ratio is
- * lower; 1.15 lies between (calibrated on the project's generated tilings, whose true diameter the tests
- * compare against).
+ * A granulometry by the distance transform (trade; the maximal inscribed discs of mathematical morphology,
+ * Serra 1982, Image Analysis and Mathematical Morphology, ch. 11; pub, memory): each cell interior's distance
+ * maximum is the radius r of the largest disc it holds. A gap in a wall leaves these discs whole, so the
+ * measure holds where the components do not. The typical inscribed diameter is the median of 2r over the
+ * maxima of dynamic ≥ 1 px (boundary noise makes none), each weighted by its disc's area πr², so that crumbs
+ * of texture in the walls, which are many but small, do not pull it down.
+ *
+ * A cell's inscribed disc misses its corners and its share of the walls. For a regular hexagonal tiling of
+ * centre spacing a with walls t wide: the interior's inscribed diameter is d = a − t, the cell's
+ * equivalent-circle diameter is a·√(2√3/π) = 1.05 a, and the walls' share of the field is f = t·(P/2)/A =
+ * 2t/a (P = 2√3 a, A = (√3/2) a² per cell), so t = f d / (2 − f) = 0.5 f d / (1 − 0.5 f), and
+ * D = 1.05 (d + t) (derived). f is read as the fraction of the field outside the interiors. On the
+ * project's generated tilings (random and hard-core seeds, 17 to 88 px cells) this is within about 12 % of the
+ * true diameter, hard-core seeds reading low and random seeds high.
  */
-import type { CV } from '../cv/index';
-import { radialPowerSpectrum } from '../cv/spectrum';
+import { dynamicPeaks } from './peaks';
 
-/** D = SPACING_TO_DIAMETER × the wavelength of the spectral peak (see above). */
-export const SPACING_TO_DIAMETER = 1.15;
-
-/** The smallest wavelength (px) searched: cells under about 3 px across cannot be segmented anyway. */
-const MIN_WAVELENGTH_PX = 2.5;
-/** The largest wavelength searched, as a fraction of the spectrum window's side: a third (three cells across at least). */
-const MAX_WAVELENGTH_FRACTION = 1 / 3;
+/** D = INSCRIBED_TO_DIAMETER × (inscribed diameter + wall width): the hexagon's ratio (see above). */
+export const INSCRIBED_TO_DIAMETER = 1.05;
 
 /**
- * The typical cell diameter (px, equivalent circle) of a prepared 8-bit walls image.
- * @returns the diameter, and the wavelength of the spectral peak it came from
+ * The typical cell diameter (px, equivalent circle) from the distance transform of the cell interiors.
+ * @param dist distance (px) of each cell-interior pixel to the nearest wall pixel, 0 on walls
+ * @param erodedPx how far the interiors were eroded before the distance was taken (added back to each radius)
+ * @returns the diameter, and the area-weighted median inscribed diameter it came from; null when there is
+ *   no interior at all
  */
-export function estimateCellDiameter(cv: CV, prepared: Uint8Array, width: number, height: number): { diameterPx: number; wavelengthPx: number } {
-  const { power, sidePx: K } = radialPowerSpectrum(cv, prepared, width, height);
-  const kLo = Math.ceil(1 / MAX_WAVELENGTH_FRACTION);
-  const kHi = Math.min(power.length - 2, Math.floor(K / MIN_WAVELENGTH_PX));
-  // Ring powers smoothed over three rings (a ring's count of frequencies grows with k, so single rings are noisy).
-  let best = -1;
-  let bk = -1;
-  const sm = (k: number): number => (power[k - 1]! + power[k]! + power[k + 1]!) / 3;
-  for (let k = kLo; k <= kHi; k++) {
-    const v = sm(k);
-    if (v > best) (best = v), (bk = k);
+export function estimateCellDiameter(dist: Float32Array, width: number, height: number, erodedPx = 0): { diameterPx: number; inscribedPx: number } | null {
+  const peaks = dynamicPeaks(dist, width, height, 1);
+  const radii: number[] = [];
+  for (let i = 0; i < peaks.markers.length; i++) if (peaks.markers[i]! > 0) radii.push(dist[i]! + erodedPx);
+  if (radii.length === 0) return null;
+  radii.sort((a, b) => a - b);
+  let total = 0;
+  for (const r of radii) total += r * r;
+  let acc = 0;
+  let median = radii[radii.length - 1]!;
+  for (const r of radii) {
+    acc += r * r;
+    if (acc >= total / 2) {
+      median = r;
+      break;
+    }
   }
-  if (bk < 0) return { diameterPx: Math.min(width, height), wavelengthPx: Math.min(width, height) };
-  // Parabolic refinement of the peak ring (trade).
-  let kk = bk;
-  if (bk > kLo && bk < kHi) {
-    const a = sm(bk - 1);
-    const c = sm(bk + 1);
-    const den = a - 2 * best + c;
-    if (den < 0) kk = bk + (0.5 * (a - c)) / den;
-  }
-  const wavelengthPx = K / kk;
-  return { diameterPx: SPACING_TO_DIAMETER * wavelengthPx, wavelengthPx };
+  const inscribedPx = 2 * median;
+  let wall = 0;
+  for (let i = 0; i < dist.length; i++) if (dist[i] === 0) wall++;
+  const fw = wall / dist.length;
+  const t = (0.5 * fw * inscribedPx) / (1 - 0.5 * fw);
+  return { diameterPx: INSCRIBED_TO_DIAMETER * (inscribedPx + t), inscribedPx };
 }

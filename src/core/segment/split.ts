@@ -13,17 +13,22 @@ import type { CV } from '../cv/index';
 import { floodFromMarkers } from './flood';
 import { dynamicPeaks } from './peaks';
 
+/** The distance (px) of each marker pixel to the nearest non-marker pixel (0 off the markers). */
+export function markerDistance(cv: CV, labels: Int32Array, width: number, height: number): Float32Array {
+  const mask = new Uint8Array(width * height);
+  for (let i = 0; i < mask.length; i++) mask[i] = labels[i]! > 0 ? 1 : 0;
+  return distanceTransform(cv, mask, width, height);
+}
+
 /**
  * Splits markers in place.
  * @param labels marker labels 1..count (0 = wall or dropped), modified in place
+ * @param dist their distance transform (markerDistance)
  * @param h minimum dynamic (px) of a peak that becomes a marker of its own
  * @returns the new largest label (count when nothing was split)
  */
-export function splitMarkers(cv: CV, labels: Int32Array, count: number, width: number, height: number, h: number): number {
+export function splitMarkers(labels: Int32Array, dist: Float32Array, count: number, width: number, height: number, h: number): number {
   const n = width * height;
-  const mask = new Uint8Array(n);
-  for (let i = 0; i < n; i++) mask[i] = labels[i]! > 0 ? 1 : 0;
-  const dist = distanceTransform(cv, mask, width, height);
   const peaks = dynamicPeaks(dist, width, height, h);
   // Peaks per marker (a peak's pixel lies in one marker).
   const perMarker = new Int32Array(count + 1);

@@ -5,8 +5,8 @@
  * 1. Flatten uneven illumination and smooth (src/core/cv/kernels prepareGrey).
  * 2. Threshold (Otsu by default; adaptive or manual); the walls are the minority class unless the polarity
  *    is set (thin walls cover well under half of a cellular image).
- * 3. The size hint: the typical cell diameter, set (walls.cellDiameterPx) or read from the image's spectrum
- *    (src/core/segment/size.ts); it scales the marker dynamic and, when set, the smallest cell.
+ * 3. The size hint: the typical cell diameter, set (walls.cellDiameterPx) or read from the image
+ *    (src/core/segment/size.ts, a granulometry of the cell interiors); it scales the marker dynamic and, when set, the smallest cell.
  * 4. Cell interiors, eroded a little, are the markers. A marker joined to another through a gap in a wall is
  *    split at its distance maxima of dynamic ≥ the marker dynamic (src/core/segment/split.ts); markers
  *    smaller than the minimum cell area go.
@@ -21,7 +21,7 @@ import type { Settings } from '../settings';
 import type { GreyImage, LabelImage } from '../types';
 import { floodFromMarkers, relabelSequential } from './flood';
 import { estimateCellDiameter } from './size';
-import { splitMarkers } from './split';
+import { markerDistance, splitMarkers } from './split';
 
 export interface SegmentResult {
   labels: LabelImage;
@@ -72,10 +72,6 @@ export function segmentWalls(cv: CV, img: GreyImage, settings: Settings, onCellC
   const s = settings.walls;
   const flatten = s.flattenRadiusPx < 0 ? autoFlattenRadius(w, h) : s.flattenRadiusPx;
   const prepared = prepareGrey(cv, img, { flattenRadiusPx: flatten, smoothSigmaPx: s.smoothSigmaPx });
-  const hint = s.cellDiameterPx > 0
-    ? { diameterPx: s.cellDiameterPx, source: 'setting' as const }
-    : { diameterPx: estimateCellDiameter(cv, prepared, w, h).diameterPx, source: 'image' as const };
-  const dynamic = s.markerDynamicPx < 0 ? autoMarkerDynamic(hint.diameterPx) : s.markerDynamicPx;
 
   let polarity = s.polarity;
   // Threshold, cell class, erosion and components inside opencv.js; every component is kept here, the
@@ -93,8 +89,15 @@ export function segmentWalls(cv: CV, img: GreyImage, settings: Settings, onCellC
     (_areas, count) => new Uint8Array(count + 1).fill(1),
   );
   const labels = cc.labels;
+  // The size hint: set, or read from the interiors' distance transform (src/core/segment/size.ts).
+  const dist = markerDistance(cv, labels, w, h);
+  const read = s.cellDiameterPx > 0 ? null : estimateCellDiameter(dist, w, h, s.seedErodePx);
+  const hint = s.cellDiameterPx > 0
+    ? { diameterPx: s.cellDiameterPx, source: 'setting' as const }
+    : { diameterPx: read?.diameterPx ?? Math.min(w, h), source: 'image' as const };
+  const dynamic = s.markerDynamicPx < 0 ? autoMarkerDynamic(hint.diameterPx) : s.markerDynamicPx;
   // Markers joined through a gap in a wall are split at their distance maxima (src/core/segment/split.ts).
-  const maxLabel = dynamic > 0 ? splitMarkers(cv, labels, cc.count, w, h, dynamic) : cc.count;
+  const maxLabel = dynamic > 0 ? splitMarkers(labels, dist, cc.count, w, h, dynamic) : cc.count;
   const areas = new Int32Array(maxLabel + 1);
   for (let i = 0; i < labels.length; i++) areas[labels[i]!]!++;
   // Markers below the minimum area are dropped: their pixels are flooded by the neighbours. The area of a
