@@ -127,7 +127,7 @@ export async function analyze(input: AnalyzeInput, settingsInput: SettingsInput 
     (early as ReferenceStart)?.cancel();
     throw outOfCvMemory(e, crop.width, crop.height);
   }
-  return measureLabels(seg.labels, crop, field, img.width, img.height, settings, opts, { threshold: seg.threshold, polarity: seg.polarity, minCellAreaPx: seg.minCellAreaPx }, early);
+  return measureLabels(seg.labels, crop, field, img.width, img.height, settings, opts, { threshold: seg.threshold, polarity: seg.polarity, minCellAreaPx: seg.minCellAreaPx, ...(seg.cellDiameterPx ? { cellDiameterPx: seg.cellDiameterPx, markerDynamicPx: seg.markerDynamicPx } : {}) }, early);
 }
 
 /**

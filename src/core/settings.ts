@@ -26,6 +26,17 @@ export interface WallsSettings {
   adaptiveBlockPx: number;
   /** Cell interiors are eroded by this many px before they seed the watershed (splits cells joined by gaps in a wall). */
   seedErodePx: number;
+  /**
+   * The size hint: the typical cell diameter (px, equivalent circle); -1 = auto, read from the image (the
+   * peak of its radially summed power spectrum, src/core/segment/size.ts). It sets the marker dynamic and
+   * the smallest cell area when those are on auto.
+   */
+  cellDiameterPx: number;
+  /**
+   * A cell interior joined to another through a gap in a wall is split at its distance-transform maxima that
+   * stand this many px above the saddle between them; -1 = auto (an eighth of the cell diameter), 0 = never split.
+   */
+  markerDynamicPx: number;
 }
 
 export interface BodiesSettings {
@@ -122,6 +133,8 @@ export function defaultSettings(): Settings {
       manualThreshold: 128,
       adaptiveBlockPx: 51,
       seedErodePx: 0,
+      cellDiameterPx: -1,
+      markerDynamicPx: -1,
     },
     bodies: {
       polarity: 'auto',
@@ -245,6 +258,8 @@ export function resolveSettings(input: SettingsInput = {}): Settings {
   num(s.walls.manualThreshold, 'walls.manualThreshold', 0, 255);
   num(s.walls.adaptiveBlockPx, 'walls.adaptiveBlockPx', 3, 2001);
   num(s.walls.seedErodePx, 'walls.seedErodePx', 0, 50);
+  if (s.walls.cellDiameterPx !== -1) num(s.walls.cellDiameterPx, 'walls.cellDiameterPx (-1 = auto, or a diameter in px)', 2, 100000);
+  if (s.walls.markerDynamicPx !== -1) num(s.walls.markerDynamicPx, 'walls.markerDynamicPx (-1 = auto, 0 = never split)', 0, 100000);
   oneOf(s.bodies.polarity, 'bodies.polarity', ['auto', 'bright', 'dark']);
   num(s.bodies.smoothSigmaPx, 'bodies.smoothSigmaPx', 0, 50);
   oneOf(s.bodies.threshold, 'bodies.threshold', ['otsu', 'adaptive', 'manual']);
