@@ -5,7 +5,10 @@
  * cut to the mask, left-out cells included: an interior cell keeps every neighbour it has.
  */
 import { cellSums, type CellSums } from '../measure/kernel';
+import type { Tessellation } from '../tessellate/types';
 import type { LabelImage, Rect } from '../types';
+import { maskedCells } from './cells';
+import type { MaskGeometry } from './geometry';
 
 export interface MaskedLabels {
   /** The kept cells 1..count, cut to the mask; 0 elsewhere (field-sized, as the labels given). */
@@ -77,4 +80,17 @@ function keepFirst(s: CellSums, k: number, edge: Uint8Array): CellSums {
     intensitySum: s.intensitySum.slice(0, k), xmin: s.xmin.slice(0, k), ymin: s.ymin.slice(0, k), xmax: s.xmax.slice(0, k), ymax: s.ymax.slice(0, k),
     edge, perimeter: s.perimeter.slice(0, k), hullArea: s.hullArea.slice(0, k), neighbourOffsets: offsets, neighbourIndex: Int32Array.from(index),
   };
+}
+
+/**
+ * An observed tessellation seen through the mask, as the reference's replicates see theirs (mask/cells.ts,
+ * every cell kept): the Voronoi areas are those inside the mask, and a cell whose Voronoi cell touches the
+ * mask's border is an edge cell. Points, polygons and neighbours stay as they are.
+ */
+export function maskTessellation(t: Tessellation, m: MaskGeometry): Tessellation {
+  const c = maskedCells(t, (i, out) => {
+    out.length = 0;
+    for (let v = t.polygonOffsets[i]!; v < t.polygonOffsets[i + 1]!; v++) out.push(t.polygonCoords[2 * v]!, t.polygonCoords[2 * v + 1]!);
+  }, m, 'all');
+  return { ...t, area: c.area, edge: c.edge };
 }

@@ -16,6 +16,8 @@ import { largestGap, type LargestGap } from './gap';
 import { assessQuality, type Quality } from './quality';
 import { stretchPoints, type Anisotropy } from './anisotropy';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
+import { hasPixel, type MaskGeometry } from '../mask/geometry';
+import { maskCovariance } from '../mask/covariance';
 import { combinedMaxZ, monteCarloP } from './mctest';
 
 export { combinedMaxZ, monteCarloP } from './mctest';
@@ -71,6 +73,11 @@ export interface RandomnessInput {
   notices?: string[];
   /** Anisotropy of the cells (walls): aligned elongated cells move the spacing statistics to a stretched frame. */
   anisotropy?: Anisotropy | null;
+  /**
+   * A tissue mask inside the field: the field of the statistics (edge flags given accordingly; densities,
+   * Clark–Evans and the L-function in the mask; the reference drawn in it; edge rule 'exclude').
+   */
+  mask?: MaskGeometry;
 }
 
 /** The minimum cell area (px²) the observation used: the segmentation's, else settings.minCellAreaPx for images, else 0. */
@@ -88,12 +95,12 @@ function referenceLayoutOf(settings: Settings): ReferenceLayout {
  * place they are worked out, for {@link randomness} and for a reference started ahead of it), or null
  * when the settings ask for no reference (replicates 0).
  */
-export function referenceOptionsFor(settings: Settings, cells: number, field: Rect, minCellAreaPx?: number): ReferenceOptions | null {
+export function referenceOptionsFor(settings: Settings, cells: number, field: Rect, minCellAreaPx?: number, mask?: MaskGeometry): ReferenceOptions | null {
   // Fewer cells than the verdict needs: a reference could not change the answer.
   if (settings.reference.replicates < 1 || cells < MIN_INTERIOR_CELLS) return null;
   return {
     cells, field, replicates: settings.reference.replicates, seed: settings.reference.seed, edgeRule: settings.edgeRule,
-    minCellAreaPx: observedMinArea(settings, minCellAreaPx), layout: referenceLayoutOf(settings),
+    minCellAreaPx: observedMinArea(settings, minCellAreaPx), layout: referenceLayoutOf(settings), ...(mask ? { mask } : {}),
   };
 }
 
@@ -227,7 +234,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const spacingPoints = stretch ? stretchPoints(t.points, stretch) : t.points;
   let ref: Reference | null = input.reference ?? null;
   if (!ref) {
-    const refOpts = referenceOptionsFor(settings, n, spacingField, input.minCellAreaPx);
+    const refOpts = referenceOptionsFor(settings, n, spacingField, input.minCellAreaPx, input.mask);
     if (!refOpts && n < MIN_INTERIOR_CELLS) {
       warnings.push(`No random-seeding reference was drawn: ${n} cell${n === 1 ? '' : 's'} cannot be compared with random seeding (the comparison needs at least ${MIN_INTERIOR_CELLS}).`);
     } else if (!refOpts) {
@@ -251,7 +258,8 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   }
 
   // Observed cells in the statistics.
-  const sample = cellSample(area, edge, bbox, field, settings.edgeRule, minArea);
+  const mask = input.mask ?? null;
+  const sample = cellSample(area, edge, bbox, field, mask ? 'exclude' : settings.edgeRule, minArea);
   const m = sample.index.length;
   const enough = m >= MIN_INTERIOR_CELLS;
   if (!enough) {
@@ -261,13 +269,16 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const as = m > 0 ? areaStats(area, sample) : null;
   // The tessellation is that of these very points, so its neighbour graph holds every nearest neighbour
   // (not so for stretched points: there the grid search finds them).
-  const ce = stretch ? clarkEvans(spacingPoints, spacingField) : clarkEvans(spacingPoints, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex });
+  const shape = mask ? { area: mask.area, perimeter: mask.perimeter } : undefined;
+  const ce = stretch ? clarkEvans(spacingPoints, spacingField) : clarkEvans(spacingPoints, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }, shape);
   if (spacingPoints.length / 2 < 2) warnings.push('Clark–Evans and the L-function need at least 2 points.');
-  const radii = ref ? ref.lRadii : lRadii(n, spacingField);
-  const L = lFunction(spacingPoints, spacingField, radii);
+  const radii = ref ? ref.lRadii : mask ? lRadii(n, mask.bbox, mask.area) : lRadii(n, spacingField);
+  const L = mask ? lFunction(spacingPoints, mask.bbox, radii, maskCovariance(mask, radii[radii.length - 1]!)) : lFunction(spacingPoints, spacingField, radii);
   const an = input.anisotropy ?? null;
   if (an?.spacing === 'stretched') {
     warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}, direction ${an.directionDeg!.toFixed(0)}°) and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function are computed with x scaled by ${stretch!.sx.toFixed(3)} and y by ${stretch!.sy.toFixed(3)}, which makes the mean cell round, against random seeding in the same stretched field.`);
+  } else if (an?.spacing === 'left out' && mask) {
+    warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}) and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function assume an isotropic pattern and, in a tissue mask, are not computed in a stretched frame; they are left out of the verdict.`);
   } else if (an?.spacing === 'left out') {
     warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}) at ${an.directionDeg!.toFixed(0)}°, away from the image axes, and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function assume an isotropic pattern and are left out of the verdict. Rotate the image so that the cells lie along an axis to include them.`);
   }
@@ -360,7 +371,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const none = (len: number) => new Array<number | null>(len).fill(null);
   let gap: LargestGap | null = null;
   try {
-    gap = largestGap(t);
+    gap = largestGap(t, mask ? (x, y) => hasPixel(mask.pixels, Math.floor(x), Math.floor(y)) : undefined);
   } catch (e) {
     warnings.push(`The largest gap could not be found: ${describeError(e)}`);
   }
