@@ -12,6 +12,7 @@ import { imageFiles, settingsJson, summaryCsv } from '../../core/export/index';
 import { parsePointsCsv } from '../../core/segment/points';
 import { analyseFile } from '../../app/analyse';
 import { openFile } from '../../app/open';
+import { maskFor, openMask } from '../../app/mask';
 import { resolveSettings, type SettingsInput } from '../../core/settings';
 import type { Command } from '../main';
 import { parseArgs, parseSize, positiveNumber } from '../args';
@@ -19,14 +20,14 @@ import { ensureOutDir, writeOut } from '../files';
 import { sharedReferencePool } from '../../node/referencePool';
 
 const USAGE =
-  'tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json] [--events FILE.csv] [--size WxH (points)]';
+  'tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json] [--events FILE.csv] [--size WxH (points)] [--mask FILE.png]';
 
 export const command: Command = {
   name: 'analyze',
   summary: 'Segment cells, measure them, tessellate their centroids and compare with random seeding.',
   usage: USAGE,
   async run(argv) {
-    const a = parseArgs(argv, ['pattern', 'um-per-px', 'out', 'settings', 'events', 'size']);
+    const a = parseArgs(argv, ['pattern', 'um-per-px', 'out', 'settings', 'events', 'size', 'mask']);
     if (a.positional.length === 0) throw new SettingsError(`No input given. Usage: ${USAGE}`);
     let input: SettingsInput = {};
     if (a.options.has('settings')) {
@@ -54,6 +55,9 @@ export const command: Command = {
       const f = a.options.get('events')!;
       events = parsePointsCsv(await readText(f), { name: basename(f) }).points;
     }
+    // A tissue mask (nonzero = tissue) of the images' size: the field of the statistics.
+    const maskFile = a.options.get('mask');
+    const mask = maskFile ? await openMask(basename(maskFile), await readBytes(maskFile)) : null;
     const files = a.positional;
     // Worker threads draw each image's random-seeding reference while the rest of its analysis runs.
     const referencePool = sharedReferencePool();
@@ -70,7 +74,9 @@ export const command: Command = {
         const size = base.pattern === 'points' && a.options.has('size') ? parseSize(a.options.get('size')!) : null;
         const opened = await openFile(name, bytes, { as: base.pattern === 'points' ? 'points' : 'image', size });
         if (opened.kind === 'image' && opened.pages.length > 1) process.stderr.write(`[${i + 1}/${files.length}] ${name}: ${opened.pages.length} pages; analysing the first (use kinetics for a series)\n`);
-        const analysis = await analyseFile(opened, base, { events, referencePool, onProgress: (s, f) => f === 0 && say(s) });
+        const analysis = await analyseFile(opened, base, {
+          events, referencePool, onProgress: (s, f) => f === 0 && say(s), ...(mask ? { mask: maskFor(mask, opened.width, opened.height) } : {}),
+        });
         lastSettings = analysis.settings;
         say('writing');
         const outlines = await outlinesOf(analysis);
