@@ -17,6 +17,20 @@ export interface PixelRuns {
   x1: Int32Array;
 }
 
+/**
+ * The field cut into squares of BLOCK px from its corner (x0, y0): the summed-area table `sat`, (bw + 1) x
+ * (bh + 1), counts the squares whose pixels are all in the interior.
+ */
+export interface InnerBlocks {
+  x0: number;
+  y0: number;
+  bw: number;
+  bh: number;
+  sat: Int32Array;
+}
+
+const BLOCK = 8;
+
 /** A mask's geometry: plain numbers and typed arrays (posted to worker threads as it is). */
 export interface MaskGeometry {
   /** Size of the raster the mask was given on (the image). */
@@ -39,28 +53,35 @@ export interface MaskGeometry {
   pixels: PixelRuns;
   /** The interior: tissue pixels not on the field's border whose four neighbours are tissue. */
   inner: PixelRuns;
+  /** Blocks of the interior, for a quick test of a rectangle lying in it ({@link innerHolds}). */
+  blocks: InnerBlocks;
   /** A digest of the runs, for caches keyed by the mask. */
   key: string;
 }
 
-function buildRuns(y0: number, rows: number, inside: (x: number, y: number) => boolean, xa: number, xb: number): PixelRuns {
+/**
+ * Runs of the pixels of rows r = 0..rows − 1 (image row y0 + r), columns x = 0..w − 1 (image column x0 + x):
+ * `fill(r, out)` writes row r's pixels into out, 1 inside, 0 outside.
+ */
+function buildRuns(y0: number, rows: number, x0: number, w: number, fill: (r: number, out: Uint8Array) => void): PixelRuns {
   const rowStart = new Int32Array(rows + 1);
-  const x0: number[] = [];
-  const x1: number[] = [];
+  const s0: number[] = [];
+  const s1: number[] = [];
+  const line = new Uint8Array(w);
   for (let r = 0; r < rows; r++) {
-    const y = y0 + r;
-    let x = xa;
-    while (x < xb) {
-      while (x < xb && !inside(x, y)) x++;
-      if (x >= xb) break;
+    fill(r, line);
+    let x = 0;
+    while (x < w) {
+      while (x < w && line[x] === 0) x++;
+      if (x >= w) break;
       const s = x;
-      while (x < xb && inside(x, y)) x++;
-      x0.push(s);
-      x1.push(x);
+      while (x < w && line[x] === 1) x++;
+      s0.push(x0 + s);
+      s1.push(x0 + x);
     }
-    rowStart[r + 1] = x0.length;
+    rowStart[r + 1] = s0.length;
   }
-  return { y0, rowStart, x0: Int32Array.from(x0), x1: Int32Array.from(x1) };
+  return { y0, rowStart, x0: Int32Array.from(s0), x1: Int32Array.from(s1) };
 }
 
 /** FNV-1a over 32-bit words. */
@@ -89,9 +110,18 @@ export function maskGeometry(mask: Uint8Array, width: number, height: number, fi
     throw new SettingsError(`The mask holds ${mask.length} pixels but the image is ${width} x ${height} px (${width * height}); give a mask of the image's size.`);
   }
   const { x0: fx0, y0: fy0, x1: fx1, y1: fy1 } = field;
-  const at = (x: number, y: number): boolean => x >= fx0 && x < fx1 && y >= fy0 && y < fy1 && mask[y * width + x] !== 0;
+  const fw = fx1 - fx0;
   const rows = fy1 - fy0;
-  const pixels = buildRuns(fy0, rows, at, fx0, fx1);
+  // The field's tissue, padded by one pixel of outside on every side: t[(y + 1)·(fw + 2) + x + 1].
+  const pw = fw + 2;
+  const t = new Uint8Array(pw * (rows + 2));
+  for (let r = 0; r < rows; r++) {
+    const m0 = (fy0 + r) * width + fx0;
+    const t0 = (r + 1) * pw + 1;
+    for (let x = 0; x < fw; x++) t[t0 + x] = mask[m0 + x] !== 0 ? 1 : 0;
+  }
+  const at = (x: number, y: number): boolean => x >= fx0 && x < fx1 && y >= fy0 && y < fy1 && mask[y * width + x] !== 0;
+  const pixels = buildRuns(fy0, rows, fx0, fw, (r, out) => out.set(t.subarray((r + 1) * pw + 1, (r + 1) * pw + 1 + fw)));
   let area = 0;
   let bx0 = Infinity;
   let bx1 = -Infinity;
@@ -107,18 +137,41 @@ export function maskGeometry(mask: Uint8Array, width: number, height: number, fi
     }
   }
   if (area === 0) {
-    throw new SettingsError(`The mask marks no tissue inside the ${fx1 - fx0} x ${fy1 - fy0} px field (every pixel is 0); mark the tissue with nonzero pixels.`);
+    throw new SettingsError(`The mask marks no tissue inside the ${fw} x ${rows} px field (every pixel is 0); mark the tissue with nonzero pixels.`);
   }
-  const inner = buildRuns(
-    fy0, rows,
-    (x, y) => x > fx0 && x < fx1 - 1 && y > fy0 && y < fy1 - 1 && at(x, y) && at(x - 1, y) && at(x + 1, y) && at(x, y - 1) && at(x, y + 1),
-    fx0, fx1,
-  );
-  // Perimeter: every 2x2 window of the field padded by one pixel of outside, by its corners inside.
+  // The interior: not on the field's border, the four neighbours tissue.
+  const bw = Math.ceil(fw / BLOCK);
+  const bh = Math.ceil(rows / BLOCK);
+  const whole = new Uint8Array(bw * bh).fill(1);
+  const inner = buildRuns(fy0, rows, fx0, fw, (r, out) => {
+    out.fill(0);
+    if (r > 0 && r < rows - 1) {
+      const q0 = (r + 1) * pw + 1;
+      for (let x = 1; x < fw - 1; x++) {
+        const q = q0 + x;
+        out[x] = t[q]! & t[q - 1]! & t[q + 1]! & t[q - pw]! & t[q + pw]!;
+      }
+    }
+    const b0 = Math.floor(r / BLOCK) * bw;
+    for (let x = 0; x < fw; x++) if (!out[x]) whole[b0 + Math.floor(x / BLOCK)] = 0;
+  });
+  const sat = new Int32Array((bw + 1) * (bh + 1));
+  for (let j = 0; j < bh; j++) {
+    for (let i = 0; i < bw; i++) sat[(j + 1) * (bw + 1) + i + 1] = whole[j * bw + i]! + sat[j * (bw + 1) + i + 1]! + sat[(j + 1) * (bw + 1) + i]! - sat[j * (bw + 1) + i]!;
+  }
+  // Perimeter: every 2x2 window of the padded field, by its corners inside.
   let perimeter = 0;
-  for (let y = fy0 - 1; y < fy1; y++) {
-    for (let x = fx0 - 1; x < fx1; x++) {
-      const m = (at(x, y) ? 1 : 0) | (at(x + 1, y) ? 2 : 0) | (at(x, y + 1) ? 4 : 0) | (at(x + 1, y + 1) ? 8 : 0);
+  for (let r = 0; r <= rows; r++) {
+    const top = r * pw;
+    const bot = top + pw;
+    let b = t[top]!;
+    let d = t[bot]!;
+    for (let x = 0; x < pw - 1; x++) {
+      const a = b;
+      const c = d;
+      b = t[top + x + 1]!;
+      d = t[bot + x + 1]!;
+      const m = a | (b << 1) | (c << 2) | (d << 3);
       if (m !== 0 && m !== 15) perimeter += MS_LEN[m]!;
     }
   }
@@ -128,7 +181,7 @@ export function maskGeometry(mask: Uint8Array, width: number, height: number, fi
   const key = `${width}x${height}:${fx0},${fy0},${fx1},${fy1}:${area}:${digest([pixels.rowStart, pixels.x0, pixels.x1])}`;
   return {
     width, height, field: { x0: fx0, y0: fy0, x1: fx1, y1: fy1 }, bbox: { x0: bx0, y0: by0, x1: bx1, y1: by1 },
-    area, perimeter, borderLength, pixels, inner, key,
+    area, perimeter, borderLength, pixels, inner, blocks: { x0: fx0, y0: fy0, bw, bh, sat }, key,
   };
 }
 
@@ -171,4 +224,20 @@ export function countInRow(r: PixelRuns, y: number, a: number, b: number, sum?: 
   }
   if (sum) sum[0] = sx;
   return count;
+}
+
+/**
+ * Whether every pixel x0 ≤ x < x1, y0 ≤ y < y1 is in the mask's interior, by whole blocks (false when the
+ * blocks that cover the rectangle are not all interior, though its own pixels may be).
+ */
+export function innerHolds(b: InnerBlocks, x0: number, y0: number, x1: number, y1: number): boolean {
+  if (x1 <= x0 || y1 <= y0) return false;
+  const i0 = Math.floor((x0 - b.x0) / BLOCK);
+  const j0 = Math.floor((y0 - b.y0) / BLOCK);
+  const i1 = Math.ceil((x1 - b.x0) / BLOCK);
+  const j1 = Math.ceil((y1 - b.y0) / BLOCK);
+  if (i0 < 0 || j0 < 0 || i1 > b.bw || j1 > b.bh) return false;
+  const W = b.bw + 1;
+  const n = b.sat[j1 * W + i1]! - b.sat[j0 * W + i1]! - b.sat[j1 * W + i0]! + b.sat[j0 * W + i0]!;
+  return n === (i1 - i0) * (j1 - j0);
 }

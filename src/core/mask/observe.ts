@@ -31,14 +31,17 @@ export interface MaskedLabels {
  */
 export function maskLabels(labels: LabelImage, intensity: ArrayLike<number> | undefined, field: Rect, mask: Uint8Array, width: number): MaskedLabels {
   const { width: w, height: h, labels: L, count } = labels;
-  const at = (x: number, y: number): boolean => x >= 0 && y >= 0 && x < w && y < h && mask[(y + field.y0) * width + x + field.x0] !== 0;
+  // Pixel (x, y) of the field is mask[row(y) + x].
+  const row = (y: number): number => (y + field.y0) * width + field.x0;
   const total = new Float64Array(count + 1);
   const inside = new Float64Array(count + 1);
   for (let y = 0; y < h; y++) {
+    const m0 = row(y);
+    const l0 = y * w;
     for (let x = 0; x < w; x++) {
-      const l = L[y * w + x]!;
+      const l = L[l0 + x]!;
       total[l]!++;
-      if (at(x, y)) inside[l]!++;
+      if (mask[m0 + x] !== 0) inside[l]!++;
     }
   }
   const relabel = new Int32Array(count + 1);
@@ -48,7 +51,9 @@ export function maskLabels(labels: LabelImage, intensity: ArrayLike<number> | un
   for (let l = 1; l <= count; l++) if (!relabel[l] && inside[l]! > 0) relabel[l] = ++met;
   const cut = new Int32Array(w * h);
   for (let y = 0; y < h; y++) {
-    for (let x = 0; x < w; x++) if (at(x, y)) cut[y * w + x] = relabel[L[y * w + x]!]!;
+    const m0 = row(y);
+    const l0 = y * w;
+    for (let x = 0; x < w; x++) if (mask[m0 + x] !== 0) cut[l0 + x] = relabel[L[l0 + x]!]!;
   }
   const all = cellSums({ width: w, height: h, labels: cut, count: met }, intensity);
   const sides = new Int32Array(kept);
@@ -57,10 +62,12 @@ export function maskLabels(labels: LabelImage, intensity: ArrayLike<number> | un
   const edge = new Uint8Array(kept);
   for (let l = 1; l <= count; l++) if (relabel[l]! >= 1 && relabel[l]! <= kept && inside[l] !== total[l]) edge[relabel[l]! - 1] = 1;
   for (let y = 0; y < h; y++) {
+    const m = row(y);
     for (let x = 0; x < w; x++) {
       const c = cut[y * w + x]!;
       if (c < 1 || c > kept || edge[c - 1]) continue;
-      if (x === 0 || y === 0 || x === w - 1 || y === h - 1 || !at(x - 1, y) || !at(x + 1, y) || !at(x, y - 1) || !at(x, y + 1)) edge[c - 1] = 1;
+      const q = m + x;
+      if (x === 0 || y === 0 || x === w - 1 || y === h - 1 || !mask[q - 1] || !mask[q + 1] || !mask[q - width] || !mask[q + width]) edge[c - 1] = 1;
     }
   }
   for (let p = 0; p < cut.length; p++) if (cut[p]! > kept) cut[p] = 0;

@@ -11,7 +11,7 @@
  *   pixel squares.
  */
 import { describe, expect, it } from 'vitest';
-import { maskGeometry, countInRow, hasPixel } from '../../../src/core/mask/geometry';
+import { maskGeometry, countInRow, hasPixel, innerHolds } from '../../../src/core/mask/geometry';
 import { covarianceAt, setCovariance } from '../../../src/core/mask/covariance';
 import { SettingsError } from '../../../src/core/errors';
 
@@ -49,6 +49,10 @@ describe('mask geometry', () => {
     expect(inner).toBe(68 * 38);
     expect(hasPixel(g.inner, 21, 31)).toBe(true);
     expect(hasPixel(g.inner, 20, 31)).toBe(false);
+    // The quick test by blocks: a box well inside holds, a box reaching the outline does not.
+    expect(innerHolds(g.blocks, 32, 40, 80, 56)).toBe(true);
+    expect(innerHolds(g.blocks, 16, 40, 80, 56)).toBe(false);
+    expect(innerHolds(g.blocks, 32, 40, 80, 72)).toBe(false);
   });
 
   it('a rectangle on the field\'s border: the border is outline, its length counted apart', () => {
