@@ -1,11 +1,14 @@
 #!/usr/bin/env node
-// Writes docs/summary.schema.json, the JSON Schema of summary.json, from the Summary interface in
-// src/core/summary.ts. Run after changing that interface: `node scripts/make-summary-schema.mjs`.
-// A test (test/integration/summary-schema.test.ts) fails when the committed schema is out of date.
+// Writes docs/summary.schema.json and docs/failed-summary.schema.json, the JSON Schemas of summary.json, from
+// the Summary and FailedSummary interfaces in src/core/summary.ts. Run after changing them:
+// `node scripts/make-summary-schema.mjs`. Tests (test/integration/summary-keys.test.ts,
+// test/unit/cli/failed-summary.test.ts) fail when a committed schema is out of date.
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { summarySchema } from './summary-schema.mjs';
+import { failedSummarySchema, summarySchema } from './summary-schema.mjs';
 
-const out = fileURLToPath(new URL('../docs/summary.schema.json', import.meta.url));
-writeFileSync(out, `${JSON.stringify(summarySchema(), null, 2)}\n`);
-process.stdout.write(`wrote ${out}\n`);
+for (const [file, schema] of [['summary.schema.json', summarySchema()], ['failed-summary.schema.json', failedSummarySchema()]]) {
+  const out = fileURLToPath(new URL(`../docs/${file}`, import.meta.url));
+  writeFileSync(out, `${JSON.stringify(schema, null, 2)}\n`);
+  process.stdout.write(`wrote ${out}\n`);
+}

@@ -15,6 +15,8 @@ export interface OpenedPoints {
   width: number;
   height: number;
   umPerPxFromFile: null;
+  /** What to tell the user about the file (coincident points merged, and how many), one sentence each; absent = nothing. */
+  warnings?: string[];
 }
 
 /** An image decoded into grey pages (a multi-page TIFF has several; the first is the one analysed). */
@@ -84,9 +86,10 @@ export async function openFile(name: string, bytes: Uint8Array, opts: OpenOption
   const asPoints = opts.as ? opts.as === 'points' : looksLikePoints(name, bytes);
   if (asPoints) {
     const { parsePointsCsv } = await import('../core/segment/points');
-    const { points } = parsePointsCsv(new TextDecoder().decode(bytes), { name });
+    // Coincident points are merged, with a warning that says how many.
+    const { points, warnings } = parsePointsCsv(new TextDecoder().decode(bytes), { name });
     const field = opts.size ? { width: opts.size[0], height: opts.size[1] } : pointsField(points);
-    return { kind: 'points', name, points, width: field.width, height: field.height, umPerPxFromFile: null };
+    return { kind: 'points', name, points, width: field.width, height: field.height, umPerPxFromFile: null, warnings };
   }
   const { decodeImage } = await import('../core/image/decode');
   const d = await decodeImage(bytes, { name, maxPixels: opts.maxPixels });

@@ -16,6 +16,7 @@ const loaders: Record<string, () => Promise<Command>> = {
   synth: async () => (await import('./commands/synth')).command,
   reference: async () => (await import('./commands/reference')).command,
   kinetics: async () => (await import('./commands/kinetics')).command,
+  merge: async () => (await import('./commands/merge')).command,
 };
 
 function help(): string {
@@ -24,6 +25,8 @@ function help(): string {
     '',
     'Commands:',
     '  tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR]',
+    '                   [--files-from LIST|-] [--shard I/N] [--skip-existing] [--threads N]',
+    '  tessellab merge DIR... --out FILE.csv',
     '  tessellab kinetics IMAGE... --times t1,t2,... [--out DIR]',
     '  tessellab synth --pattern walls|bodies --cells N --size WxH [--order random|regular|clustered] --seed S --out FILE',
     '  tessellab reference --cells N --size WxH [--replicates R] [--seed S]',

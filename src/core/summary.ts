@@ -158,6 +158,20 @@ export interface Summary {
   grainSize?: GrainSizeSummary;
 }
 
+/**
+ * summary.json as written: the summary, what was analysed and by which version (when the writer knows), and
+ * every setting used, so that any figure can be reproduced from the file alone.
+ */
+export interface SummaryFile extends Summary {
+  /** The input's file name. */
+  image?: string;
+  /** The input's path as it was given (command line). */
+  input?: string;
+  /** The version of Tessellab that wrote the file. */
+  version?: string;
+  settings: Settings;
+}
+
 export interface SummaryInput {
   settings: Settings;
   width: number;
@@ -225,5 +239,28 @@ export function buildSummary(inp: SummaryInput): Summary {
     voronoiLikeness: r.voronoiLikeness,
     ...(inp.events ? { events: inp.events } : {}),
     ...(inp.grainSize ? { grainSize: inp.grainSize } : {}),
+  };
+}
+
+/**
+ * summary.json of an input that could not be analysed: which input, which version tried, and why. A batch
+ * keeps one summary.json per input, complete or failed, so that a workflow engine keeps every result and a
+ * merged table has a row for every input. Its JSON Schema is docs/failed-summary.schema.json, generated
+ * from this interface by scripts/make-summary-schema.mjs.
+ */
+export interface FailedSummary {
+  /** The layout version, {@link SUMMARY_VERSION}. */
+  tessellab: typeof SUMMARY_VERSION;
+  /** The input's file name. */
+  image: string;
+  /** The input's path as it was given. */
+  input: string;
+  /** The version of Tessellab that tried. */
+  version: string;
+  error: {
+    /** The error's kind (src/core/errors.ts), or 'Unexpected'. */
+    kind: string;
+    /** One line: what is wrong and what to do. */
+    message: string;
   };
 }

@@ -3,13 +3,16 @@
  * worker_threads that each draw chunks of replicates and transfer the typed arrays back. Workers start on
  * first use and are kept for the process; an idle pool does not keep the process alive.
  */
-import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { workerPool, type ClosablePool, type ReferenceReply } from '../core/reference/workerPool';
+import { allowedCpus } from './cpus';
 
-/** Threads for the pool: one per core beyond the caller's own (the caller draws chunks too), 1 to 7. */
+/**
+ * Threads for the pool: one per CPU the process may use (affinity and cgroup quota, src/node/cpus.ts) beyond
+ * the caller's own (the caller draws chunks too), 1 to 7.
+ */
 export function defaultPoolSize(): number {
-  return Math.max(1, Math.min(7, availableParallelism() - 1));
+  return Math.max(1, Math.min(7, allowedCpus().count - 1));
 }
 
 /** A pool of `size` worker threads (default {@link defaultPoolSize}). */

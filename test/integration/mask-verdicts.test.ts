@@ -51,7 +51,7 @@ describe('walls windows in an irregular mask against the reference drawn in it',
   });
 
   it('random seeding: "consistent with random seeding" in at least 8 of 10; Clark–Evans R and the cell count unbiased', async () => {
-    const res = [];
+    const res: Awaited<ReturnType<typeof run>>[] = [];
     for (let k = 0; k < 10; k++) res.push(await run('random', 500 + k));
     expect(res.filter((r) => r.verdict === 'consistent with random seeding').length).toBeGreaterThanOrEqual(8);
     // Means of 10 standardised values: standard error about 1/√10; 0.75 is about 2.4 of them.

@@ -9,7 +9,7 @@ import { analyze } from '../../src/core/analyze';
 import { decodeImage } from '../../src/core/image/decode';
 import { assessQuality, MAX_AREA_CV, MIN_MEDIAN_SOLIDITY } from '../../src/core/stats/quality';
 import type { GreyImage } from '../../src/core/types';
-import { expectValidSummary } from '../helpers/summary-schema';
+import { expectValidAnalysisSummary } from '../helpers/summary-schema';
 
 /** White noise: the sum of four uniforms per pixel, no structure at all. */
 function noise(W: number, H: number, seed: number): GreyImage {
@@ -40,7 +40,7 @@ describe('quality check', () => {
   for (const pattern of ['walls', 'bodies'] as const) {
     it(`pure noise as ${pattern}: not rated, with the reason, and every number still written`, async () => {
       const a = await analyze({ kind: 'image', image: noise(400, 300, 11) }, { pattern, reference: { replicates: 19 } });
-      expectValidSummary(a.summary, `noise ${pattern}`);
+      expectValidAnalysisSummary(a, `noise ${pattern}`);
       expect(a.summary.quality.ok).toBe(false);
       expect(a.summary.randomness.verdict).toBeNull();
       expect(a.summary.randomness.verdictText).toMatch(/^Not rated: /);

@@ -11,7 +11,7 @@ import { STATISTICS } from '../../src/core/stats/registry';
 import type { Summary } from '../../src/core/summary';
 // @ts-expect-error -- a plain .mjs module of the project's scripts, without type declarations
 import { summarySchema } from '../../scripts/summary-schema.mjs';
-import { expectValidSummary } from '../helpers/summary-schema';
+import { expectValidAnalysisSummary, expectValidSummary } from '../helpers/summary-schema';
 
 const get = (o: unknown, path: string): unknown => path.split('.').reduce((v: any, k) => (v == null ? undefined : v[k]), o);
 
@@ -51,6 +51,8 @@ describe('summary.json schema', () => {
 
   it('rejects a summary with a key of the wrong type (the check can fail)', () => {
     expect(() => expectValidSummary({ tessellab: 2, width: 'wide' })).toThrow();
+    // A summary without the settings beside it is not a summary.json file.
+    expect(() => expectValidSummary({ tessellab: 2 })).toThrow();
   });
 });
 
@@ -60,7 +62,7 @@ describe('summary.json keys', () => {
     expect(img.umPerPx).toBeCloseTo(0.5, 6); // stored in the PNG pHYs chunk by the generator
     const a = await analyze({ kind: 'image', image: img.pages[0]! }, { umPerPx: img.umPerPx }, { calibrationSource: 'file' });
     const s: Summary = a.summary;
-    expectValidSummary(s, 'grains-calibrated');
+    expectValidAnalysisSummary(a, 'grains-calibrated');
     const paths = promisedPaths();
     expect(paths.length).toBeGreaterThan(25);
     for (const k of paths) expect(get(s, k), k).not.toBeUndefined();
@@ -84,7 +86,7 @@ describe('summary.json keys', () => {
   it('uncalibrated: umPerPx is null, units are px, and grain size says why it is missing', async () => {
     const img = await load('tissue-regular.png');
     const a = await analyze({ kind: 'image', image: img.pages[0]! }, {});
-    expectValidSummary(a.summary, 'tissue-regular');
+    expectValidAnalysisSummary(a, 'tissue-regular');
     expect(a.summary.umPerPx).toBeNull();
     expect(a.summary.calibration.source).toBe('none');
     expect(Object.keys(a.columns)).toContain('area_px2');
@@ -98,7 +100,7 @@ describe('summary.json keys', () => {
   it('bodies: side statistics come from the Voronoi tessellation', async () => {
     const img = await load('bodies-touching.png');
     const a = await analyze({ kind: 'image', image: img.pages[0]! }, { pattern: 'bodies' });
-    expectValidSummary(a.summary, 'bodies-touching');
+    expectValidAnalysisSummary(a, 'bodies-touching');
     expect(a.summary.sides.source).toBe('voronoi');
     expect(a.summary.grainSize).toBeUndefined();
     const truth = JSON.parse(readFileSync('sample-images/bodies-touching.truth.json', 'utf8'));
@@ -112,7 +114,7 @@ describe('summary.json keys', () => {
     for (let i = 0; i < pts.length; i++) pts[i] = rnd() * 500;
     const events = Float64Array.from({ length: 200 }, () => rnd() * 500);
     const a = await analyze({ kind: 'points', points: pts, width: 500, height: 500 }, { reference: { replicates: 0 } }, { events });
-    expectValidSummary(a.summary, 'points');
+    expectValidAnalysisSummary(a, 'points');
     expect(a.summary.randomness.verdict).toBeNull();
     expect(a.summary.randomness.reference).toBeNull();
     expect(a.summary.randomness.verdictText).toMatch(/reference is missing/);

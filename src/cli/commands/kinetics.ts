@@ -2,8 +2,9 @@
  * `tessellab kinetics IMAGE... [--times t1,t2,... | --times-csv FILE] [--out DIR]`: the transformed fraction
  * of an image series and its JMAK (Avrami) fit; writes kinetics.csv, kinetics.json and settings.json.
  */
-import { mkdir, readFile, writeFile } from 'node:fs/promises';
+import { readFile } from 'node:fs/promises';
 import { basename, join } from 'node:path';
+import { ensureOutDir, writeOut } from '../files';
 import { cropImage, reanalyzeLabels } from '../../core/analyze';
 import { sharedReferencePool } from '../../node/referencePool';
 import { describeError, SettingsError, TessellabError } from '../../core/errors';
@@ -106,23 +107,23 @@ export const command: Command = {
     });
     const { result, mosaic } = run;
     const out = o.get('out') ?? '.';
-    await mkdir(out, { recursive: true });
-    for (const f of seriesFiles(run)) await writeFile(join(out, f.name), f.text);
+    await ensureOutDir(out);
+    for (const f of seriesFiles(run)) await writeOut(out, f.name, f.text);
     for (const w of result.warnings) process.stderr.write(`kinetics: warning: ${w}\n`);
     process.stdout.write(headline(result) + '\n');
 
     if (args.flags.has('final-analysis')) {
       process.stderr.write('kinetics: measuring the final mosaic as a walls pattern\n');
       const labels16 = Uint16Array.from(mosaic.labels.labels, (v) => Math.min(v, 65535));
-      await writeFile(join(out, 'final.labels.png'), encodePng({ width: mosaic.labels.width, height: mosaic.labels.height, data: labels16, channels: 1, bitDepth: 16 }));
-      await writeFile(join(out, 'final.walls.png'), encodePng({ ...mosaic.wallsImage, channels: 1, bitDepth: 8 }));
+      await writeOut(out, 'final.labels.png', encodePng({ width: mosaic.labels.width, height: mosaic.labels.height, data: labels16, channels: 1, bitDepth: 16 }));
+      await writeOut(out, 'final.walls.png', encodePng({ ...mosaic.wallsImage, channels: 1, bitDepth: 8 }));
       try {
         const last = frames[frames.length - 1]!;
         const f = result.field;
         const crop: GreyImage = cropImage(last, f);
         const an = await reanalyzeLabels(mosaic.labels, crop, { ...run.settings, pattern: 'walls', field: f }, { width: last.width, height: last.height }, { referencePool: sharedReferencePool() });
         const nuclei = mosaic.nuclei;
-        await writeFile(join(out, 'final.summary.json'), JSON.stringify({ summary: an.summary, nuclei, complete: mosaic.complete }, null, 2) + '\n');
+        await writeOut(out, 'final.summary.json', JSON.stringify({ summary: an.summary, nuclei, complete: mosaic.complete }, null, 2) + '\n');
         if (!mosaic.complete) process.stderr.write('kinetics: warning: the last frame has not reached fitMax; the mosaic still has untransformed gaps.\n');
       } catch (e) {
         if (!(e instanceof TessellabError)) throw e;

@@ -11,7 +11,25 @@ export interface PrepareOptions {
   flattenRadiusPx: number;
   /** Gaussian sigma (px); 0 = no smoothing. */
   smoothSigmaPx: number;
+  /**
+   * Where the illumination may be read (1) and where not (0): the background of a bodies image, so that the
+   * bodies themselves do not raise the estimate. Absent = everywhere (the walls pattern).
+   */
+  backgroundMask?: Uint8Array;
+  /**
+   * 'divide' (default): illumination multiplies what is seen (transmitted or reflected light). 'subtract':
+   * the background's level itself varies (a backdrop lighter in one part, glare, stray light), which
+   * division would carry into the bodies' contrast.
+   */
+  flattenBy?: 'divide' | 'subtract';
 }
+
+/**
+ * Weight, relative to a pixel's neighbourhood fully in the background, below which the masked illumination
+ * estimate leans on the mean of the whole background (regularised normalised convolution): a region covered
+ * by bodies gets the global level rather than an estimate from a few stray pixels.
+ */
+const MASKED_FLATTEN_PRIOR = 0.05;
 
 /**
  * Flattens uneven illumination, smooths and stretches an image to 8 bits, keeping full (16-bit) precision
@@ -19,7 +37,10 @@ export interface PrepareOptions {
  *
  * Flattening divides by a background estimate: a Gaussian blur of sigma = radius/2, computed on a copy
  * downsampled so the kernel stays about 8 px wide (illumination is smooth, so nothing is lost) and scaled
- * back up. Division, not subtraction, because illumination multiplies reflectance/transmittance.
+ * back up. Division, not subtraction, because illumination multiplies reflectance/transmittance. With a
+ * background mask the estimate is a normalised convolution, G∗(I·m) / G∗m (Knutsson & Westin 1993, Proc.
+ * CVPR 515; pub, memory), regularised towards the mean background where the mask is sparse, so that large
+ * bodies do not lift the estimate around them.
  * The stretch maps the 0.1 and 99.9 percentiles to 0 and 255 (trade).
  *
  * @returns 8-bit smoothed image, row-major, same size as the input.
@@ -38,14 +59,45 @@ export function prepareGrey(cv: CV, img: GreyImage, o: PrepareOptions): Uint8Arr
       const sw = Math.max(1, Math.round(w / factor));
       const sh = Math.max(1, Math.round(h / factor));
       const small = track(new cv.Mat());
-      cv.resize(f, small, new cv.Size(sw, sh), 0, 0, cv.INTER_AREA);
       const sb = track(new cv.Mat());
       const ss = sigma / factor;
       const k = 2 * Math.ceil(3 * ss) + 1;
-      cv.GaussianBlur(small, sb, new cv.Size(k, k), ss, ss, cv.BORDER_REFLECT);
+      const ksize = new cv.Size(k, k);
+      let mean = Number.NaN;
+      if (o.backgroundMask) {
+        // Normalised convolution on the downsampled copy: blur(I·m) / blur(m), both at the small size.
+        const m8 = track(matFromArray(cv, h, w, cv.CV_8UC1, o.backgroundMask));
+        const weight = cv.countNonZero(m8) as number;
+        if (weight === 0) throw new RangeError('prepareGrey: the background mask is empty');
+        const fm = track(new cv.Mat());
+        f.copyTo(fm);
+        const fd = fm.data32F as Float32Array;
+        const md = m8.data as Uint8Array;
+        let sum = 0;
+        for (let i = 0; i < fd.length; i++) {
+          if (md[i]) sum += fd[i]!;
+          else fd[i] = 0;
+        }
+        mean = sum / weight;
+        const mf = track(new cv.Mat());
+        m8.convertTo(mf, cv.CV_32F);
+        cv.resize(fm, small, new cv.Size(sw, sh), 0, 0, cv.INTER_AREA);
+        cv.GaussianBlur(small, sb, ksize, ss, ss, cv.BORDER_REFLECT);
+        const ms = track(new cv.Mat());
+        cv.resize(mf, ms, new cv.Size(sw, sh), 0, 0, cv.INTER_AREA);
+        const mb = track(new cv.Mat());
+        cv.GaussianBlur(ms, mb, ksize, ss, ss, cv.BORDER_REFLECT);
+        const num = sb.data32F as Float32Array;
+        const den = mb.data32F as Float32Array;
+        const p = MASKED_FLATTEN_PRIOR;
+        for (let i = 0; i < num.length; i++) num[i] = (num[i]! + p * mean) / (den[i]! + p);
+      } else {
+        cv.resize(f, small, new cv.Size(sw, sh), 0, 0, cv.INTER_AREA);
+        cv.GaussianBlur(small, sb, ksize, ss, ss, cv.BORDER_REFLECT);
+      }
       const bg = track(new cv.Mat());
       cv.resize(sb, bg, new cv.Size(w, h), 0, 0, cv.INTER_LINEAR);
-      const mean = cv.mean(bg)[0] as number;
+      if (!o.backgroundMask) mean = cv.mean(bg)[0] as number;
       // max(bg, 1e-3) in place (a full-size Mat of the constant would cost 4 bytes a pixel of heap), and
       // only when needed: bilinear upscaling never goes below the small image's minimum (less a rounding
       // of a few parts in 10^7), so at 2e-3 or more no pixel of bg can be under 1e-3.
@@ -54,7 +106,12 @@ export function prepareGrey(cv: CV, img: GreyImage, o: PrepareOptions): Uint8Arr
         const eps = Math.fround(1e-3);
         for (let i = 0; i < b.length; i++) if (!(b[i]! >= eps)) b[i] = eps;
       }
-      cv.divide(f, bg, f, mean);
+      if (o.flattenBy === 'subtract') {
+        // f − bg + mean, in place.
+        const fd = f.data32F as Float32Array;
+        const bd = bg.data32F as Float32Array;
+        for (let i = 0; i < fd.length; i++) fd[i] = fd[i]! - bd[i]! + mean;
+      } else cv.divide(f, bg, f, mean);
     }
     if (o.smoothSigmaPx > 0) {
       const k = 2 * Math.ceil(3 * o.smoothSigmaPx) + 1;
@@ -244,6 +301,18 @@ export function erodeMask(cv: CV, mask: Uint8Array, width: number, height: numbe
   return withMats((track) => {
     const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
     return new Uint8Array(erodeMat(cv, track, src, r).data as Uint8Array);
+  });
+}
+
+/** Opens a 0/1 mask (erosion then dilation) with a disc-like (elliptic) element of radius r px: parts thinner than 2r + 1 px go. */
+export function openMask(cv: CV, mask: Uint8Array, width: number, height: number, r: number): Uint8Array {
+  if (r <= 0) return mask.slice();
+  return withMats((track) => {
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
+    const dst = track(new cv.Mat());
+    const k = track(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * r + 1, 2 * r + 1)));
+    cv.morphologyEx(src, dst, cv.MORPH_OPEN, k, new cv.Point(-1, -1), 1, cv.BORDER_CONSTANT, new cv.Scalar(0));
+    return new Uint8Array(dst.data as Uint8Array);
   });
 }
 

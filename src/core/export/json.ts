@@ -1,10 +1,12 @@
 /** JSON writers: summary.json and settings.json, two-space indented, keys in a stable order. */
+import type { SummaryFile } from '../summary';
 import type { Analysis } from '../analysis.types';
 import type { Settings } from '../settings';
 
 /** summary.json: the analysis summary with the settings used beside it. */
-export function summaryJson(analysis: Analysis, extra: Record<string, unknown> = {}): string {
-  return JSON.stringify({ ...analysis.summary, ...extra, settings: analysis.settings }, replacer, 2) + '\n';
+export function summaryJson(analysis: Analysis, extra: Pick<SummaryFile, 'image' | 'input' | 'version'> = {}): string {
+  const file: SummaryFile = { ...analysis.summary, ...extra, settings: analysis.settings };
+  return JSON.stringify(file, replacer, 2) + '\n';
 }
 
 /** settings.json: every setting used. */

@@ -11,11 +11,21 @@
  */
 
 /**
+ * With `relative` > 0 the minimum dynamic of a peak grows with the peak's own height (the radius of the body
+ * it marks): max(h, relative·height), so a small body beside a large one is judged by its own size.
+ *
  * @param dist distance transform (px), 0 outside the bodies
  * @param h minimum dynamic (px)
+ * @param relative minimum dynamic as a fraction of the peak's own height (0 = h alone)
  * @returns Int32Array of marker labels (one pixel per marker: the peak), 0 elsewhere, and the count
  */
-export function dynamicPeaks(dist: Float32Array, width: number, height: number, h: number): { markers: Int32Array; count: number } {
+export function dynamicPeaks(
+  dist: Float32Array,
+  width: number,
+  height: number,
+  h: number,
+  relative = 0,
+): { markers: Int32Array; count: number } {
   const n = width * height;
   // Order the body pixels by decreasing distance (counting sort on 1/32 px steps).
   let max = 0;
@@ -74,7 +84,8 @@ export function dynamicPeaks(dist: Float32Array, width: number, height: number, 
         const aOlder = dist[peak[a]!]! >= dist[peak[b]!]!;
         const old = aOlder ? a : b;
         const young = aOlder ? b : a;
-        if (alive[young] && dist[peak[young]!]! - level < h) alive[young] = 0;
+        const top = dist[peak[young]!]!;
+        if (alive[young] && top - level < Math.max(h, relative * top)) alive[young] = 0;
         // A young peak that stands at least h above the saddle stays a marker.
         if (alive[young]) recorded.push(peak[young]!);
         parent[young] = old;

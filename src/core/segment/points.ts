@@ -5,12 +5,61 @@ import Papa from 'papaparse';
 import { CsvError } from '../errors';
 
 export interface PointsCsv {
-  /** Interleaved x, y, in the units of the file. */
+  /** Interleaved x, y, in the units of the file (each coincident point once, unless kept). */
   points: Float64Array;
   count: number;
   /** Names of the x and y columns used ('' when the file has no header). */
   xColumn: string;
   yColumn: string;
+  /** Lines dropped because they repeat an earlier line's x and y exactly (0 when duplicates are kept). */
+  duplicates: number;
+  /** What a user should be told about the file (the duplicates merged), one sentence each; empty when nothing. */
+  warnings: string[];
+}
+
+/** The points with coincident ones merged, and how many were dropped. */
+export interface MergedPoints {
+  /** Interleaved x, y: each distinct point once, in order of first appearance. */
+  points: Float64Array;
+  /** Points dropped (repeats of an earlier point). */
+  duplicates: number;
+  /** 0-based index of the first repeat, or -1. */
+  firstDuplicate: number;
+}
+
+/**
+ * Merges coincident points (exactly equal x and y) into their first occurrence. Coincident seeds have no
+ * tessellation (two seeds, one cell); a point set measured twice at a spot is one point.
+ *
+ * @param points interleaved x, y
+ */
+export function mergeCoincidentPoints(points: Float64Array): MergedPoints {
+  const n = points.length >> 1;
+  const seen = new Map<number, number | number[]>();
+  const keep = new Uint8Array(n);
+  let duplicates = 0;
+  let firstDuplicate = -1;
+  for (let i = 0; i < n; i++) {
+    const x = points[2 * i]! + 0; // −0 and 0 are the same point
+    const y = points[2 * i + 1]! + 0;
+    // Buckets by x (most sets have few repeated x), then the y values seen with it.
+    const ys = seen.get(x);
+    let dup = false;
+    if (ys === undefined) seen.set(x, y);
+    else if (typeof ys === 'number') {
+      if (ys === y) dup = true;
+      else seen.set(x, [ys, y]);
+    } else if (ys.includes(y)) dup = true;
+    else ys.push(y);
+    if (dup) {
+      duplicates++;
+      if (firstDuplicate < 0) firstDuplicate = i;
+    } else keep[i] = 1;
+  }
+  if (duplicates === 0) return { points, duplicates, firstDuplicate };
+  const out = new Float64Array(2 * (n - duplicates));
+  for (let i = 0, k = 0; i < n; i++) if (keep[i]) (out[k++] = points[2 * i]!), (out[k++] = points[2 * i + 1]!);
+  return { points: out, duplicates, firstDuplicate };
 }
 
 const X_NAMES = ['x', 'x_px', 'x_um', 'cx', 'centroid_x', 'xpos', 'x (px)', 'x (um)', 'x (µm)'];
@@ -19,12 +68,15 @@ const Y_NAMES = ['y', 'y_px', 'y_um', 'cy', 'centroid_y', 'ypos', 'y (px)', 'y (
 /**
  * Parses a CSV of points. With a header, the x and y columns are found by name (x, x_px, x_um, ...);
  * without one, the first two columns are x and y. Blank lines are skipped. Every other line must hold
- * two finite numbers, or a CsvError names the line.
+ * two finite numbers, or a CsvError names the line. Lines that repeat an earlier line's x and y are merged
+ * into it, with a warning that says how many (coincident points cannot be tessellated), unless
+ * `duplicates: 'keep'` (events, where two at one spot are two events).
  *
  * @param text the file's text
  * @param opts.name file name for messages
+ * @param opts.duplicates 'merge' (default) or 'keep'
  */
-export function parsePointsCsv(text: string, opts: { name?: string } = {}): PointsCsv {
+export function parsePointsCsv(text: string, opts: { name?: string; duplicates?: 'merge' | 'keep' } = {}): PointsCsv {
   const where = opts.name ? `${opts.name}: ` : '';
   if (text.trim().length === 0) throw new CsvError(`${where}the points file is empty; it needs one x,y pair per line.`);
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy', delimitersToGuess: [',', '\t', ';', ' '] });
@@ -67,7 +119,17 @@ export function parsePointsCsv(text: string, opts: { name?: string } = {}): Poin
     points[2 * (r - start)] = x;
     points[2 * (r - start) + 1] = y;
   }
-  return { points, count: n, xColumn, yColumn };
+  if (opts.duplicates === 'keep') return { points, count: n, xColumn, yColumn, duplicates: 0, warnings: [] };
+  const merged = mergeCoincidentPoints(points);
+  const warnings: string[] = [];
+  if (merged.duplicates > 0) {
+    const d = merged.duplicates;
+    const line = lineOf[start + merged.firstDuplicate] ?? start + merged.firstDuplicate + 1;
+    warnings.push(
+      `${where}${d} duplicated point${d === 1 ? '' : 's'} (the same x and y as an earlier line, first at line ${line}) merged; ${n - d} distinct points of ${n} are analysed.`,
+    );
+  }
+  return { points: merged.points, count: n - merged.duplicates, xColumn, yColumn, duplicates: merged.duplicates, warnings };
 }
 
 /** 1-based line numbers of the non-blank lines of a text. */

@@ -16,9 +16,9 @@ import { largestGap, type LargestGap } from './gap';
 import { assessQuality, type Quality } from './quality';
 import { stretchPoints, type Anisotropy } from './anisotropy';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
+import { combinedMaxZ, monteCarloP } from './mctest';
 import { hasPixel, type MaskGeometry } from '../mask/geometry';
 import { maskCovariance } from '../mask/covariance';
-import { combinedMaxZ, monteCarloP } from './mctest';
 
 export { combinedMaxZ, monteCarloP } from './mctest';
 import {
@@ -330,7 +330,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   } else if (!used.length) {
     verdictText = `No verdict: none of ${STATISTICS.filter((s) => s.verdict).map((s) => s.label).join(', ')} could be computed.`;
   } else {
-    const c = combinedMaxZ(used.map((s) => obs[s.key]), used.map((s) => ref!.values[s.key]));
+    const c = combinedMaxZ(used.map((s) => obs[s.key]), used.map((s) => ref!.values[s.key]), used.map((s) => (s.regular === 'high' ? 1 : -1)));
     if (!c) {
       verdictText = 'No verdict: the reference has no complete replicate.';
     } else {
@@ -344,9 +344,12 @@ export function randomness(input: RandomnessInput): RandomnessResult {
         if (r === 'more regular') regularOnes.push(u.label);
         if (r === 'more irregular') irregularOnes.push(u.label);
       });
-      const strongestRegular = (v < ref.mean[s.key]) === (s.regular === 'low');
+      // Without a significant statistic of its own, the direction is the one the test rests on: the agreement
+      // of the statistics when it carried the test, else the largest single departure.
+      const strongestRegular = c.byAgreement ? c.agreement! > 0 : (v < ref.mean[s.key]) === (s.regular === 'low');
       const head = `combined Monte Carlo test of ${used.map((u) => u.label).join(', ')}: p = ${fmtP(c.p)} at α = ${alpha}, ${ref.options.replicates} replicates`;
-      const detail = `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)}`;
+      const detail = (c.byAgreement ? `carried by the statistics' agreement, ${fmt(Math.abs(c.agreement!))} sd towards ${c.agreement! > 0 ? 'regular' : 'irregular'}; ` : '')
+        + `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)}`;
       if (!(c.p < alpha)) {
         verdict = 'consistent with random seeding';
         verdictText = `${verdict} (${head}; ${detail})`;

@@ -5,7 +5,8 @@
 import { mkdtempSync, readFileSync, existsSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
+import { expectValidSummaryTree } from '../../helpers/summary-schema';
 import { main } from '../../../src/cli/main';
 import { encodePng } from '../../../src/core/image/encode';
 import { synthesize } from '../../../src/core/synth/index';
@@ -98,21 +99,45 @@ describe('tessellab analyze: bad input', () => {
     expectOneLine(r.err, 'pts2.csv', /line 4 is missing y/);
   });
 
-  it('fewer than 3 cells for the tessellation', async () => {
-    const p = file('two.csv', 'x,y\n10,10\n20,20\n');
-    const r = await run(['analyze', p, '--pattern', 'points', '--size', '100x100', '--out', join(dir, 'o-two')]);
-    expect(r.code).toBe(1);
-    expectOneLine(r.err, 'two.csv', /at least 3/);
+  it('a points CSV with duplicated points is analysed, with a warning that says how many were merged', async () => {
+    // 30 distinct points on a jittered 6 x 5 grid (hand-made), then lines 2, 9 and 9 again repeated.
+    const rows: string[] = [];
+    for (let k = 0; k < 30; k++) rows.push(`${10 + (k % 6) * 15 + (k % 4)},${10 + Math.floor(k / 6) * 18 + (k % 3)}`);
+    rows.push(rows[0]!, rows[7]!, rows[7]!);
+    const p = file('dups.csv', `x,y\n${rows.join('\n')}\n`);
+    const out = join(dir, 'o-dups');
+    const r = await run(['analyze', p, '--pattern', 'points', '--size', '100x100', '--out', out]);
+    expect(r.code).toBe(0);
+    expect(r.err).toContain('warning: dups.csv: 3 duplicated points (the same x and y as an earlier line, first at line 32) merged; 30 distinct points of 33 are analysed.');
+    const summary = JSON.parse(readFileSync(join(out, 'dups.summary.json'), 'utf8')) as { cells: { count: number } };
+    expect(summary.cells.count).toBe(30);
   });
 
-  it('two bodies in an image: too few cells for the tessellation', async () => {
+  it('two points: analysed, with the reason there is no verdict; no points: one line', async () => {
+    const p = file('two.csv', 'x,y\n10,10\n20,20\n');
+    const r = await run(['analyze', p, '--pattern', 'points', '--size', '100x100', '--out', join(dir, 'o-two')]);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(readFileSync(join(dir, 'o-two', 'two.summary.json'), 'utf8'));
+    expect(s.cells.count).toBe(2);
+    expect(s.randomness.warnings.join(' ')).toMatch(/2 cells cannot be compared with random seeding/);
+    const e = file('none.csv', 'x,y\n');
+    const r0 = await run(['analyze', e, '--pattern', 'points', '--size', '100x100', '--out', join(dir, 'o-none')]);
+    expect(r0.code).toBe(1);
+    expect(r0.err).not.toMatch(/Unexpected error/);
+  });
+
+  it('two bodies in an image: measured, without a verdict', async () => {
     const w = 80;
     const data = new Uint8Array(w * w).fill(30);
     for (let y = 0; y < w; y++) for (let x = 0; x < w; x++) if (Math.hypot(x - 20, y - 40) < 10 || Math.hypot(x - 60, y - 40) < 10) data[y * w + x] = 220;
     const p = file('two-bodies.png', encodePng({ width: w, height: w, data, channels: 1, bitDepth: 8 }));
     const r = await run(['analyze', p, '--pattern', 'bodies', '--out', join(dir, 'o-2b')]);
-    expect(r.code).toBe(1);
-    expectOneLine(r.err, 'two-bodies.png', /Only 2 cells found; the tessellation needs at least 3/);
+    // Two cells still get their table and summary; only the statistics that need more cells are left out.
+    expect(r.code).toBe(0);
+    const s = JSON.parse(readFileSync(join(dir, 'o-2b', 'two-bodies.summary.json'), 'utf8'));
+    expect(s.cells.count).toBe(2);
+    expect(s.randomness.verdict).toBeNull();
+    expect(readFileSync(join(dir, 'o-2b', 'two-bodies.cells.csv'), 'utf8').trim().split('\n')).toHaveLength(3);
   });
 
   it('a missing output folder is created', async () => {
@@ -142,4 +167,9 @@ describe('tessellab analyze: bad input', () => {
     const r3 = await run(['analyze', good, '--colour', 'red']);
     expect(r3.err).toMatch(/Unknown option --colour/);
   });
+});
+
+// Every summary.json these runs wrote follows docs/summary.schema.json (or, for a failed input, its own schema).
+afterAll(() => {
+  expect(expectValidSummaryTree(dir)).toBeGreaterThan(0);
 });

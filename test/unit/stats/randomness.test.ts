@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { randomness, monteCarloP, combinedMaxZ, MIN_INTERIOR_CELLS } from '../../../src/core/stats';
+import { mulberry32, normal } from '../../../src/core/random';
 import { tessellate } from '../../../src/core/tessellate';
 import { seedPoints } from '../../../src/core/synth/seeds';
 import { defaultSettings, type Settings } from '../../../src/core/settings';
@@ -36,6 +37,24 @@ describe('Monte Carlo p-values', () => {
     expect(c.strongest).toBe(0);
     const mid = combinedMaxZ([0, 0], [r1, r2])!;
     expect(mid.p).toBeGreaterThan(0.9);
+  });
+  it('the agreement of several statistics that each depart a little in the same direction carries the test (derived: under H0 the sum of three independent standard normals has sd √3)', () => {
+    // 199 replicates of three independent standard normals (Box–Muller on a fixed sequence).
+    const rnd = mulberry32(42);
+    const reps = [0, 1, 2].map(() => Array.from({ length: 199 }, () => normal(rnd)));
+    // Each observed statistic 2 sd towards "regular" (the first two regular when low, the third when high).
+    const obs = [-2, -2, 2];
+    const signs = [-1, -1, 1];
+    const maxOnly = combinedMaxZ(obs, reps)!;
+    const both = combinedMaxZ(obs, reps, signs)!;
+    // max |z| = 2 is exceeded by about 1 − (1 − 0.0455)³ ≈ 13 % of null patterns; the agreement 6/√3 ≈ 3.5 sd by fewer than 1 %.
+    expect(maxOnly.p).toBeGreaterThan(0.05);
+    expect(both.p).toBeLessThan(0.02);
+    expect(both.byAgreement).toBe(true);
+    expect(both.agreement!).toBeGreaterThan(3);
+    // Disagreeing statistics cancel in the agreement: no gain over the maximum alone.
+    const mixed = combinedMaxZ([-2, 2, 2], reps, signs)!;
+    expect(mixed.byAgreement).toBe(false);
   });
 });
 
@@ -125,8 +144,17 @@ describe('randomness: bad input', () => {
     const r = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(9, 1) });
     expect(r.warnings.join(' ')).toMatch(/smallest Monte Carlo p-value is 0\.100, above α = 0\.05/);
   });
-  it('a field too small for a reference: the reference error is reported, the observed statistics kept', () => {
+  it('too few cells for a reference: none is drawn, the reason is given, the observed statistics kept', () => {
     const t = tessellate(Float64Array.from([1, 1, 9, 2, 5, 9, 2, 7]), { x0: 0, y0: 0, x1: 10, y1: 10 });
+    const r = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(19, 1) });
+    expect(r.reference).toBeNull();
+    expect(r.warnings.join(' ')).toMatch(/4 cells cannot be compared with random seeding/);
+    expect(r.largestGap).not.toBeNull();
+  });
+  it('a field too small for a reference: the reference error is reported, the observed statistics kept', () => {
+    // 12 cells in a strip 240 x 3 px: every cell of every replicate touches the border.
+    const pts = Float64Array.from({ length: 24 }, (_, i) => (i % 2 ? 1 + (i % 3) * 0.5 : 10 + 20 * (i / 2)));
+    const t = tessellate(pts, { x0: 0, y0: 0, x1: 240, y1: 3 });
     const r = randomness({ tessellation: t, sides: t.sides, area: t.area, edge: t.edge, settings: settings(19, 1) });
     expect(r.warnings.join(' ')).toMatch(/reference could not be drawn: .*interior cell/);
     expect(r.largestGap).not.toBeNull();
