@@ -1,5 +1,6 @@
 /** A small argument parser: positional values and --name value / --flag options. */
 import { SettingsError } from '../core/errors';
+import { parseDecimal, parseWhole } from '../core/numbers';
 
 export interface ParsedArgs {
   positional: string[];
@@ -34,19 +35,22 @@ export function parseArgs(argv: string[], valued: string[], flags: string[] = []
   return { positional, options, flags: set };
 }
 
-/** A positive finite number from an option, or a SettingsError naming it. */
+/** A positive finite number in decimal notation from an option ("0x10" is not 16), or a SettingsError naming it. */
 export function positiveNumber(v: string, name: string): number {
-  const x = Number(v);
-  if (!Number.isFinite(x) || x <= 0) throw new SettingsError(`--${name} must be a positive number; got "${v}".`);
+  const x = parseDecimal(v);
+  if (!Number.isFinite(x) || x <= 0) throw new SettingsError(`--${name} must be a positive number; got "${v}" (write it in decimal, e.g. 0.65 or 6.5e-1).`);
   return x;
 }
 
-/** A positive integer from an option. */
+/** A positive whole number in plain digits from an option ("1e3", "2.0" and "0x10" are refused). */
 export function positiveInt(v: string, name: string): number {
-  const x = Number(v);
-  if (!Number.isInteger(x) || x <= 0) throw new SettingsError(`--${name} must be a positive whole number; got "${v}".`);
+  const x = parseWhole(v);
+  if (!Number.isInteger(x) || x <= 0) throw new SettingsError(`--${name} must be a positive whole number; got "${v}" (write it in plain digits).`);
   return x;
 }
+
+/** The largest side of a size given on the command line, px (the largest coordinate of a point). */
+const MAX_SIDE = 1_000_000_000;
 
 /** "WxH" -> [W, H]. */
 export function parseSize(v: string, name = 'size'): [number, number] {
@@ -55,5 +59,6 @@ export function parseSize(v: string, name = 'size'): [number, number] {
   const w = Number(m[1]);
   const h = Number(m[2]);
   if (w < 1 || h < 1) throw new SettingsError(`--${name} must be at least 1x1.`);
+  if (w > MAX_SIDE || h > MAX_SIDE) throw new SettingsError(`--${name} must be at most ${MAX_SIDE}x${MAX_SIDE} px; got "${v}".`);
   return [w, h];
 }

@@ -14,7 +14,7 @@ import { randomness, referenceOptionsFor, type RandomnessResult } from './stats/
 import type { Reference } from './reference/montecarlo';
 import { startReference, type ReferencePool } from './reference/parallel';
 import type { Analysis } from './analysis.types';
-import { MAX_PIXELS, MIN_SIDE_PX } from './image/limits';
+import { MAX_PIXELS, MIN_SIDE_PX, outOfCvMemory, tooLargeMessage } from './image/limits';
 import { cellSums, type CellSums } from './measure/kernel';
 import { measureColumns, type MeasureContext } from './measure/registry';
 import { segmentBodies } from './segment/bodies';
@@ -93,7 +93,7 @@ function validateImage(img: GreyImage): void {
   if (w < MIN_SIDE_PX || h < MIN_SIDE_PX) {
     throw new ImageTooSmallError(`${w} x ${h} px is too small to analyse; the minimum is ${MIN_SIDE_PX} x ${MIN_SIDE_PX}.`);
   }
-  if (w * h > MAX_PIXELS) throw new ImageTooLargeError(`${w} x ${h} px exceeds the limit of 268 megapixels; crop or downsample first.`);
+  if (w * h > MAX_PIXELS) throw new ImageTooLargeError(`${tooLargeMessage(w, h, MAX_PIXELS)}.`);
   if (img.data.length !== w * h) throw new SettingsError(`The image data holds ${img.data.length} values, not ${w} x ${h}.`);
 }
 
@@ -133,9 +133,9 @@ export async function analyze(input: AnalyzeInput, settingsInput: SettingsInput 
     check(opts.signal);
   } catch (e) {
     (early as ReferenceStart)?.cancel();
-    throw e;
+    throw outOfCvMemory(e, crop.width, crop.height);
   }
-  return measureLabels(seg.labels, crop, field, img.width, img.height, settings, opts, { threshold: seg.threshold, polarity: seg.polarity, minCellAreaPx: seg.minCellAreaPx }, early);
+  return measureLabels(seg.labels, crop, field, img.width, img.height, settings, opts, { threshold: seg.threshold, polarity: seg.polarity, minCellAreaPx: seg.minCellAreaPx, ...(seg.cellDiameterPx ? { cellDiameterPx: seg.cellDiameterPx, markerDynamicPx: seg.markerDynamicPx } : {}) }, early);
 }
 
 /**
@@ -444,5 +444,9 @@ async function analyzePoints(points: Float64Array, width: number, height: number
 export async function outlinesOf(analysis: Analysis): Promise<Polygons | null> {
   if (!analysis.labels) return null;
   const { cv } = await loadCv();
-  return cellOutlines(cv, analysis.labels, analysis.field.x0, analysis.field.y0);
+  try {
+    return cellOutlines(cv, analysis.labels, analysis.field.x0, analysis.field.y0);
+  } catch (e) {
+    throw outOfCvMemory(e, analysis.labels.width, analysis.labels.height);
+  }
 }

@@ -2,7 +2,8 @@
  * The one source of truth for analysis settings: a plain, versioned JSON object with defaults.
  * The settings used are written beside every result (settings.json), so any figure can be reproduced.
  */
-import { CalibrationError, SettingsError } from './errors';
+import { SettingsError } from './errors';
+import { checkUserPixelSize } from './image/calibration';
 import type { Rect } from './types';
 
 export const SETTINGS_VERSION = 1;
@@ -25,6 +26,17 @@ export interface WallsSettings {
   adaptiveBlockPx: number;
   /** Cell interiors are eroded by this many px before they seed the watershed (splits cells joined by gaps in a wall). */
   seedErodePx: number;
+  /**
+   * The size hint: the typical cell diameter (px, equivalent circle); -1 = auto, read from the image (the
+   * peak of its radially summed power spectrum, src/core/segment/size.ts). It sets the marker dynamic and
+   * the smallest cell area when those are on auto.
+   */
+  cellDiameterPx: number;
+  /**
+   * A cell interior joined to another through a gap in a wall is split at its distance-transform maxima that
+   * stand this many px above the saddle between them; -1 = auto (an eighth of the cell diameter), 0 = never split.
+   */
+  markerDynamicPx: number;
 }
 
 export interface BodiesSettings {
@@ -121,6 +133,8 @@ export function defaultSettings(): Settings {
       manualThreshold: 128,
       adaptiveBlockPx: 51,
       seedErodePx: 0,
+      cellDiameterPx: -1,
+      markerDynamicPx: -1,
     },
     bodies: {
       polarity: 'auto',
@@ -153,13 +167,34 @@ function isObj(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
 
-function merge(base: Record<string, unknown>, over: Record<string, unknown>, path: string): void {
-  for (const [k, v] of Object.entries(over)) {
-    if (v === undefined) continue;
-    if (!(k in base)) throw new SettingsError(`Unknown setting "${path}${k}"; remove it or check its spelling.`);
+/** Keys that reach an object's prototype in JavaScript: never a setting, refused wherever they appear. */
+const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
+
+/** The keys of the rectangle `field`. */
+const FIELD_KEYS = ['x0', 'y0', 'x1', 'y1'];
+
+/**
+ * Overlays `over` on `base` (the defaults) in place. Only a key the defaults have as their own is taken
+ * (`in` would also find `toString`, `constructor` and the rest of the prototype); prototype keys and unknown
+ * keys are collected for one message, a group given as something other than an object is refused at once.
+ */
+function merge(base: Record<string, unknown>, over: Record<string, unknown>, path: string, unknown: string[], forbidden: string[]): void {
+  for (const k of Object.keys(over)) {
+    const v = over[k];
+    const name = `${path}${k}`;
+    if (FORBIDDEN_KEYS.has(k)) { forbidden.push(name); continue; }
+    if (v === undefined) continue; // not a value (JSON has none): as if the key were absent
+    if (!Object.hasOwn(base, k)) { unknown.push(name); continue; }
     const b = base[k];
-    if (isObj(b) && isObj(v) && k !== 'field') merge(b, v, `${path}${k}.`);
-    else base[k] = v;
+    if (k === 'field' && path === '') {
+      if (isObj(v)) for (const fk of Object.keys(v)) if (FORBIDDEN_KEYS.has(fk)) forbidden.push(`field.${fk}`); else if (!FIELD_KEYS.includes(fk)) unknown.push(`field.${fk}`);
+      base[k] = isObj(v) ? Object.fromEntries(FIELD_KEYS.filter((fk) => Object.hasOwn(v, fk)).map((fk) => [fk, v[fk]])) : v;
+    } else if (isObj(b)) {
+      if (!isObj(v)) {
+        throw new SettingsError(`Setting ${name} must be a group of settings in braces ({ ... }); got ${JSON.stringify(v)}: fix it or remove it to use the defaults.`);
+      }
+      merge(b, v, `${name}.`, unknown, forbidden);
+    } else base[k] = v;
   }
 }
 
@@ -168,26 +203,46 @@ function num(v: unknown, name: string, lo: number, hi: number): void {
     throw new SettingsError(`Setting ${name} must be a number from ${lo} to ${hi}; got ${JSON.stringify(v)}.`);
   }
 }
+function whole(v: unknown, name: string, lo: number, hi: number): void {
+  if (typeof v !== 'number' || !Number.isInteger(v) || v < lo || v > hi) {
+    throw new SettingsError(`Setting ${name} must be a whole number from ${lo} to ${hi}; got ${JSON.stringify(v)}.`);
+  }
+}
 function oneOf(v: unknown, name: string, options: readonly string[]): void {
   if (typeof v !== 'string' || !options.includes(v)) {
     throw new SettingsError(`Setting ${name} must be one of ${options.join(', ')}; got ${JSON.stringify(v)}.`);
   }
 }
 
+/** The most replicates of the random-seeding reference (9999, the usual ceiling of a Monte Carlo test). */
+export const MAX_REPLICATES = 9999;
+
+/** Setting names in quotes, joined: "a", "b" and "c". */
+function list(names: string[]): string {
+  const q = names.map((n) => `"${n}"`);
+  return q.length === 1 ? q[0]! : `${q.slice(0, -1).join(', ')} and ${q[q.length - 1]}`;
+}
+
 /** Defaults overlaid with `input`, validated. Throws SettingsError naming the bad setting. */
 export function resolveSettings(input: SettingsInput = {}): Settings {
   const s = defaultSettings();
-  if (!isObj(input)) throw new SettingsError('Settings must be a JSON object.');
+  if (!isObj(input)) {
+    throw new SettingsError(`The settings must be one JSON object in braces ({ "pattern": "walls", ... }); got ${Array.isArray(input) ? 'a list' : JSON.stringify(input)}: fix the settings file.`);
+  }
   if (input.version !== undefined && input.version !== SETTINGS_VERSION) {
     throw new SettingsError(`Settings version ${String(input.version)} is not supported; this Tessellab reads version ${SETTINGS_VERSION}.`);
   }
-  merge(s as unknown as Record<string, unknown>, input as Record<string, unknown>, '');
-  oneOf(s.pattern, 'pattern', ['walls', 'bodies', 'points']);
-  if (s.umPerPx !== null) {
-    if (typeof s.umPerPx !== 'number' || !Number.isFinite(s.umPerPx) || s.umPerPx <= 0) {
-      throw new CalibrationError(`Pixel size must be a positive number of µm per pixel; got ${JSON.stringify(s.umPerPx)}.`);
-    }
+  const unknown: string[] = [];
+  const forbidden: string[] = [];
+  merge(s as unknown as Record<string, unknown>, input as Record<string, unknown>, '', unknown, forbidden);
+  if (forbidden.length > 0) {
+    throw new SettingsError(`The settings hold ${list(forbidden)}, which ${forbidden.length === 1 ? 'is' : 'are'} never a setting; remove ${forbidden.length === 1 ? 'it' : 'them'}.`);
   }
+  if (unknown.length > 0) {
+    throw new SettingsError(`Unknown setting${unknown.length === 1 ? '' : 's'} ${list(unknown)}; remove ${unknown.length === 1 ? 'it' : 'them'} or check the spelling.`);
+  }
+  oneOf(s.pattern, 'pattern', ['walls', 'bodies', 'points']);
+  if (s.umPerPx !== null) checkUserPixelSize(s.umPerPx, 'the settings (umPerPx), the Scale panel or --um-per-px');
   if (s.field !== null) {
     const f = s.field;
     if (!isObj(f) || ![f.x0, f.y0, f.x1, f.y1].every((v) => typeof v === 'number' && Number.isFinite(v)) || f.x1 <= f.x0 || f.y1 <= f.y0) {
@@ -203,6 +258,8 @@ export function resolveSettings(input: SettingsInput = {}): Settings {
   num(s.walls.manualThreshold, 'walls.manualThreshold', 0, 255);
   num(s.walls.adaptiveBlockPx, 'walls.adaptiveBlockPx', 3, 2001);
   num(s.walls.seedErodePx, 'walls.seedErodePx', 0, 50);
+  if (s.walls.cellDiameterPx !== -1) num(s.walls.cellDiameterPx, 'walls.cellDiameterPx (-1 = auto, or a diameter in px)', 2, 100000);
+  if (s.walls.markerDynamicPx !== -1) num(s.walls.markerDynamicPx, 'walls.markerDynamicPx (-1 = auto, 0 = never split)', 0, 100000);
   oneOf(s.bodies.polarity, 'bodies.polarity', ['auto', 'bright', 'dark']);
   num(s.bodies.smoothSigmaPx, 'bodies.smoothSigmaPx', 0, 50);
   oneOf(s.bodies.threshold, 'bodies.threshold', ['otsu', 'adaptive', 'manual']);
@@ -210,16 +267,16 @@ export function resolveSettings(input: SettingsInput = {}): Settings {
   num(s.bodies.adaptiveBlockPx, 'bodies.adaptiveBlockPx', 3, 2001);
   num(s.bodies.splitSensitivity, 'bodies.splitSensitivity', 0, 1);
   oneOf(s.points.units, 'points.units', ['px', 'um']);
-  num(s.reference.replicates, 'reference.replicates', 0, 100000);
-  num(s.reference.seed, 'reference.seed', 0, 2 ** 32 - 1);
+  whole(s.reference.replicates, 'reference.replicates', 0, MAX_REPLICATES);
+  whole(s.reference.seed, 'reference.seed', 0, 2 ** 32 - 1);
   num(s.reference.alpha, 'reference.alpha', 1e-6, 0.5);
   oneOf(s.grain.testShape, 'grain.testShape', ['circle', 'rectangle']);
   num(s.grain.testSizeFraction, 'grain.testSizeFraction', 0.05, 1);
   if (typeof s.grain.unbiasedCorrection !== 'boolean') throw new SettingsError('Setting grain.unbiasedCorrection must be true or false.');
   if (!Array.isArray(s.grain.lineAngles) || s.grain.lineAngles.length === 0) throw new SettingsError('Setting grain.lineAngles must be a non-empty list of angles in degrees.');
   s.grain.lineAngles.forEach((a, i) => num(a, `grain.lineAngles[${i}]`, -360, 360));
-  num(s.grain.linesPerAngle, 'grain.linesPerAngle', 1, 1000);
-  num(s.grain.circles, 'grain.circles', 0, 100);
+  whole(s.grain.linesPerAngle, 'grain.linesPerAngle', 1, 1000);
+  whole(s.grain.circles, 'grain.circles', 0, 100);
   oneOf(s.kinetics.threshold, 'kinetics.threshold', ['otsu', 'manual']);
   num(s.kinetics.manualThreshold, 'kinetics.manualThreshold', 0, 255);
   oneOf(s.kinetics.phase, 'kinetics.phase', ['auto', 'bright', 'dark']);

@@ -28,6 +28,13 @@ export interface SegmentInfo {
   threshold: number;
   polarity: string;
   minCellAreaPx: number;
+  /**
+   * Walls: the size hint, the typical cell diameter (px, equivalent circle) that scaled the automatic
+   * settings; `source` says whether it was set (walls.cellDiameterPx) or read from the image.
+   */
+  cellDiameterPx?: { value: number; source: 'setting' | 'image' };
+  /** Walls: the marker dynamic (px) used to split cell interiors joined through a gap in a wall; 0 = none. */
+  markerDynamicPx?: number;
 }
 
 /** A least-squares line in JSON (null where it could not be fitted). */

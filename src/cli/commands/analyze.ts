@@ -5,10 +5,11 @@
  * For the run: settings.json (the settings the user gave) and, unless sharded, summary.csv. Every file is
  * written atomically (../files.ts). A bad input gets one line on stderr; the others are still analysed.
  */
+import { readInputFile } from '../../node/inputFile';
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { outlinesOf } from '../../core/analyze';
-import { describeError, MissingError, SettingsError } from '../../core/errors';
+import { describeError, SettingsError } from '../../core/errors';
 import { fileStem, imageFiles, IMAGE_FILE_KINDS, settingsJson, summaryJson } from '../../core/export/index';
 import { summaryTableRow, summaryTableText } from '../../core/export/summaryTable';
 import { parsePointsCsv } from '../../core/segment/points';
@@ -183,9 +184,9 @@ async function settingsInput(options: Map<string, string>): Promise<SettingsInpu
     const f = options.get('settings')!;
     let text: string;
     try {
-      text = await readFile(f, 'utf8');
-    } catch {
-      throw new SettingsError(`Cannot read the settings file ${f}; check the path.`);
+      text = new TextDecoder().decode(await readInputFile(f, `the settings file ${f}`));
+    } catch (e) {
+      throw new SettingsError(e instanceof Error ? e.message : `Cannot read the settings file ${f}; check the path.`);
     }
     try {
       input = JSON.parse(text) as SettingsInput;
@@ -198,14 +199,9 @@ async function settingsInput(options: Map<string, string>): Promise<SettingsInpu
   return input;
 }
 
-async function readBytes(file: string): Promise<Uint8Array> {
-  try {
-    return new Uint8Array(await readFile(file));
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    if (code === 'ENOENT') throw new MissingError(`${file} does not exist; check the path.`);
-    throw new SettingsError(code === 'EISDIR' ? `${file} is a folder, not an image.` : `cannot read ${file} (${code ?? 'error'}).`);
-  }
+/** An input's bytes: regular files only (not /dev/zero, a pipe or a device), of a size an image can have. */
+function readBytes(file: string): Promise<Uint8Array> {
+  return readInputFile(file);
 }
 
 async function readText(file: string): Promise<string> {

@@ -2,7 +2,6 @@
  * `tessellab kinetics IMAGE... [--times t1,t2,... | --times-csv FILE] [--out DIR]`: the transformed fraction
  * of an image series and its JMAK (Avrami) fit; writes kinetics.csv, kinetics.json and settings.json.
  */
-import { readFile } from 'node:fs/promises';
 import { basename, join } from 'node:path';
 import { ensureOutDir, writeOut } from '../files';
 import { cropImage, reanalyzeLabels } from '../../core/analyze';
@@ -17,6 +16,7 @@ import { analyseSeries, gatherSeries, seriesFiles, type SeriesTimes } from '../.
 import type { GreyImage, Rect } from '../../core/types';
 import { parseArgs, positiveNumber } from '../args';
 import type { Command } from '../main';
+import { readInputFile } from '../../node/inputFile';
 
 const VALUED = ['times', 'times-csv', 'time-unit', 'out', 'threshold', 'phase', 'fit-min', 'fit-max', 'fit-method', 'field', 'um-per-px', 'settings'];
 const FLAGS = ['incubation', 'allow-decreasing', 'final-analysis'];
@@ -65,7 +65,7 @@ export const command: Command = {
     const args = parseArgs(argv, VALUED, FLAGS);
     if (args.positional.length === 0) throw new SettingsError('Give the images of the series, in time order: tessellab kinetics IMAGE... --times t1,t2,...');
     const o = args.options;
-    const input: SettingsInput = o.has('settings') ? (JSON.parse(await readFile(o.get('settings')!, 'utf8')) as SettingsInput) : {};
+    const input: SettingsInput = o.has('settings') ? await readSettingsFile(o.get('settings')!) : {};
     const kin: Record<string, unknown> = { ...(input.kinetics ?? {}) };
     if (o.has('threshold')) {
       const t = Number(o.get('threshold'));
@@ -87,12 +87,12 @@ export const command: Command = {
     const opened: OpenedFile[] = [];
     for (const [i, path] of args.positional.entries()) {
       process.stderr.write(`kinetics: reading ${i + 1} of ${args.positional.length}: ${path}\n`);
-      opened.push(await openFile(basename(path), new Uint8Array(await readFile(path)), { as: 'image' }));
+      opened.push(await openFile(basename(path), await readInputFile(path), { as: 'image' }));
     }
     const times: SeriesTimes = o.has('times')
       ? { kind: 'list', text: o.get('times')! }
       : o.has('times-csv')
-        ? { kind: 'csv', text: await readFile(o.get('times-csv')!, 'utf8') }
+        ? { kind: 'csv', text: new TextDecoder().decode(await readInputFile(o.get('times-csv')!)) }
         : { kind: 'names' };
     const series = gatherSeries(opened, times);
     if (series.reordered) process.stderr.write('kinetics: frames put in the order of the times in their file names\n');
@@ -135,3 +135,12 @@ export const command: Command = {
   },
 };
 
+/** The settings in a JSON file, or a SettingsError naming the file. */
+async function readSettingsFile(path: string): Promise<SettingsInput> {
+  const text = new TextDecoder().decode(await readInputFile(path));
+  try {
+    return JSON.parse(text) as SettingsInput;
+  } catch {
+    throw new SettingsError(`The settings file ${path} is not valid JSON; fix it or leave out --settings.`);
+  }
+}

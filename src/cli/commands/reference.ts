@@ -7,7 +7,9 @@
 import { SettingsError } from '../../core/errors';
 import { publishedConstants } from '../../core/reference/constants';
 import type { ReferenceLayout } from '../../core/reference/montecarlo';
+import { checkReferenceCounts } from '../../core/reference/limits';
 import { referenceSummary } from '../../core/reference/summary';
+import { parseDecimal, parseWhole } from '../../core/numbers';
 import { startReference } from '../../core/reference/parallel';
 import { sharedReferencePool } from '../../node/referencePool';
 import type { EdgeRule } from '../../core/settings';
@@ -28,18 +30,18 @@ export const command: Command = {
     const cells = positiveInt(a.options.get('cells')!, 'cells');
     const [width, height] = parseSize(a.options.get('size')!);
     const replicates = a.options.has('replicates') ? positiveInt(a.options.get('replicates')!, 'replicates') : 199;
-    if (replicates > 100000) throw new SettingsError(`--replicates must be at most 100000; got ${replicates}.`);
+    if (cells < 3) throw new SettingsError(`--cells must be at least 3; got ${cells}.`);
+    checkReferenceCounts(cells, replicates, width, height);
     const seedText = a.options.get('seed') ?? '1';
-    const seed = Number(seedText);
+    const seed = parseWhole(seedText);
     if (!Number.isInteger(seed) || seed < 0 || seed > 2 ** 32 - 1) throw new SettingsError(`--seed must be a whole number from 0 to 4294967295; got "${seedText}".`);
     const edgeRule = (a.options.get('edge-rule') ?? 'exclude') as EdgeRule;
     if (edgeRule !== 'exclude' && edgeRule !== 'weight') throw new SettingsError(`--edge-rule must be exclude or weight; got "${edgeRule}".`);
     const layout = (a.options.get('layout') ?? 'seeds') as ReferenceLayout;
     if (layout !== 'seeds' && layout !== 'window') throw new SettingsError(`--layout must be seeds (points, bodies) or window (walls); got "${layout}".`);
     const minText = a.options.get('min-cell-area-px');
-    const minCellAreaPx = minText === undefined ? 0 : Number(minText);
+    const minCellAreaPx = minText === undefined ? 0 : parseDecimal(minText);
     if (!(minCellAreaPx >= 0) || !Number.isFinite(minCellAreaPx)) throw new SettingsError(`--min-cell-area-px must be a number ≥ 0; got "${minText}".`);
-    if (cells < 3) throw new SettingsError(`--cells must be at least 3; got ${cells}.`);
 
     const t0 = performance.now();
     const ref = await startReference({ cells, field: { x0: 0, y0: 0, x1: width, y1: height }, replicates, seed, edgeRule, minCellAreaPx, layout }, sharedReferencePool()).result();

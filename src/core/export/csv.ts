@@ -5,6 +5,27 @@
 import type { Summary } from '../summary';
 import Papa from 'papaparse';
 import type { Analysis } from '../analysis.types';
+import { parseDecimal } from '../numbers';
+
+/**
+ * A cell made safe from formula injection. A spreadsheet opening a CSV runs a cell that starts with = + - or
+ * @ (or a tab or carriage return) as a formula, e.g. a file named `=HYPERLINK(...)`. As spreadsheet
+ * security guidance advises (common practice), such a cell gets a leading apostrophe, which spreadsheets
+ * take as "text".
+ * A number such as -1.5 or +2e-3 is left as it is: it is not a formula and must stay a number.
+ *
+ * @param v a cell's value
+ * @returns the value, or the text with an apostrophe before it
+ */
+export function escapeFormula<T>(v: T): T | string {
+  if (typeof v !== 'string' || !/^[=+\-@\t\r]/.test(v)) return v;
+  return Number.isFinite(parseDecimal(v)) ? v : `'${v}`;
+}
+
+/** CSV text (RFC 4180) of a header and rows, every cell passed through {@link escapeFormula}. */
+export function csvText(fields: string[], data: unknown[][], newline: '\r\n' | '\n' = '\r\n'): string {
+  return Papa.unparse({ fields: fields.map(escapeFormula), data: data.map((row) => row.map(escapeFormula)) }, { newline }) + newline;
+}
 
 /** Formats a number for a table: integers as they are, others to 6 significant digits, NaN/∞ as empty. */
 export function formatNumber(v: number): string {
@@ -20,7 +41,7 @@ export function cellsCsv(analysis: Analysis): string {
   const rows: string[][] = [];
   const count = cols[0]?.length ?? 0;
   for (let i = 0; i < count; i++) rows.push(cols.map((c) => formatNumber(c[i]!)));
-  return Papa.unparse({ fields: names, data: rows }, { newline: '\r\n' }) + '\r\n';
+  return csvText(names, rows);
 }
 
 /** The flat figures of one summary as (key, value) pairs, nested keys joined with dots. */
@@ -65,5 +86,5 @@ export function summaryCsv(rows: { name: string; summary: Summary | null; error?
     const flat = new Map(r.summary ? flattenSummary(r.summary as unknown as Record<string, unknown>) : []);
     return [r.name, ...SUMMARY_CSV_KEYS.map((k) => flat.get(k) ?? ''), r.error ?? ''];
   });
-  return Papa.unparse({ fields, data }, { newline: '\r\n' }) + '\r\n';
+  return csvText(fields, data);
 }

@@ -2,8 +2,8 @@
  * The files of a kinetics run (`tessellab kinetics` and the web app's Kinetics panel write the same bytes):
  * kinetics.csv, one row per frame with the units in the column names, and kinetics.json, the whole result.
  */
-import Papa from 'papaparse';
 import type { KineticsResult } from '../kinetics/types';
+import { csvText } from './csv';
 
 /**
  * kinetics.csv: one row per frame (frame, file, time, fraction, domains, mean domain area, new domains),
@@ -17,7 +17,7 @@ export function kineticsCsv(r: KineticsResult): string {
   const unit = r.timeUnit.replace(/[^A-Za-z0-9]/g, '') || 'unit';
   const fields = ['frame', 'file', `time_${unit}`, 'fraction', 'domains', areaCol, 'new_domains'];
   const data = r.frames.map((f) => [f.frame, f.source, f.time, f.fraction, f.domains, f.meanDomainArea ?? '', f.newDomains]);
-  return Papa.unparse({ fields, data }, { newline: '\n' }) + '\n';
+  return csvText(fields, data, '\n');
 }
 
 /**

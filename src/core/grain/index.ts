@@ -6,6 +6,7 @@
  */
 import type { GrainSizeSummary } from '../summary';
 import { CalibrationError, SettingsError, TessellabError } from '../errors';
+import { checkUserPixelSize } from '../image/calibration';
 import type { PatternKind, Settings } from '../settings';
 import type { LabelImage, Rect } from '../types';
 import { checkLabelsAndField } from './check';
@@ -262,9 +263,8 @@ export function grainSize(input: GrainSizeInput): GrainSizeResult {
       'Grain size needs the pixel size: set it in the Scale panel (type it or draw a line on a scale bar) or pass --um-per-px; calibrate it with a stage micrometer.',
     );
   }
-  if (typeof umPerPx !== 'number' || !Number.isFinite(umPerPx) || umPerPx <= 0) {
-    throw new CalibrationError(`Pixel size must be a positive number of µm per pixel; got ${JSON.stringify(umPerPx)}. Set it in the Scale panel or with --um-per-px.`);
-  }
+  // Inside the plausible band every area and G below is a finite, ordinary number.
+  checkUserPixelSize(umPerPx, 'the Scale panel or with --um-per-px');
   if (pattern !== 'walls') {
     throw new SettingsError(
       `Grain size (ASTM E112) rates a walls pattern (grains separated by boundaries); this is a ${pattern} pattern: set the pattern to walls in the Detect panel or with --pattern walls.`,

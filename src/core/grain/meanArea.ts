@@ -2,6 +2,8 @@
 import type { LabelImage, Rect } from '../types';
 import { fieldCensus, type FieldCensus } from './census';
 import { checkLabelsAndField } from './check';
+import { CalibrationError, SettingsError } from '../errors';
+import { PIXEL_SIZE_BAND } from '../image/calibration';
 import { gFromMeanArea } from './formulas';
 import type { GBin } from './types';
 
@@ -58,18 +60,37 @@ export function milesLantuejoulWeight(W1: number, W2: number, b1: number, b2: nu
   return d > 0 ? (W1 * W2) / d : Infinity;
 }
 
+/** The most bins a per-grain G histogram may have (250 G units at the default 0.25). */
+export const MAX_G_BINS = 1000;
+
 /**
  * Histogram of per-grain G, G = −3.3223·log₁₀ a − 2.955 with a the grain's area in mm² (the mean-area form
  * of ASTM E1382 applied to each grain), in bins of `binG` G units aligned to multiples of binG.
  *
  * @param areasMm2 grain areas (mm²)
  * @param binG bin width (G units), default 0.25
+ * @throws CalibrationError when an area gives no finite G (0 or infinite: a pixel size far outside the
+ *   plausible band) or the G values span {@link MAX_G_BINS} bins or more; SettingsError for a bad bin width
  */
 export function gHistogram(areasMm2: readonly number[], binG = 0.25): GBin[] {
   if (areasMm2.length === 0) return [];
+  if (!(binG > 0) || !Number.isFinite(binG)) throw new SettingsError(`The bin width of the per-grain G histogram must be a positive number; got ${binG}.`);
   const g = areasMm2.map(gFromMeanArea);
-  const lo = Math.floor(Math.min(...g) / binG);
-  const hi = Math.floor(Math.max(...g) / binG);
+  let gLo = Infinity;
+  let gHi = -Infinity;
+  for (const v of g) {
+    if (!Number.isFinite(v)) {
+      throw new CalibrationError(`A grain's area (${areasMm2[g.indexOf(v)]} mm²) gives no finite grain size number; check the pixel size (${PIXEL_SIZE_BAND}) in the Scale panel or with --um-per-px.`);
+    }
+    if (v < gLo) gLo = v;
+    if (v > gHi) gHi = v;
+  }
+  const lo = Math.floor(gLo / binG);
+  const hi = Math.floor(gHi / binG);
+  // Grains of one image span a few tens of G units (a 1 px grain and one of 10⁸ px are 27 G apart).
+  if (hi - lo >= MAX_G_BINS) {
+    throw new CalibrationError(`The grains' sizes span G ${gLo.toPrecision(3)} to ${gHi.toPrecision(3)}, more than any image holds; check the pixel size (${PIXEL_SIZE_BAND}) in the Scale panel or with --um-per-px.`);
+  }
   const bins: GBin[] = [];
   for (let k = lo; k <= hi; k++) bins.push({ g0: k * binG, g1: (k + 1) * binG, count: 0, areaFraction: 0 });
   let total = 0;

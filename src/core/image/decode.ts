@@ -12,7 +12,7 @@ export { MAX_PIXELS } from './limits';
 export interface DecodeOptions {
   /** File name, put at the start of every error message. */
   name?: string;
-  /** Limit on width x height of one page, in pixels; default {@link MAX_PIXELS} (268 megapixels). */
+  /** Limit on width x height of one page, in pixels; default {@link MAX_PIXELS} (100 megapixels). */
   maxPixels?: number;
 }
 

@@ -11,6 +11,10 @@ export interface JpegHeader {
   precision: number;
   /** Number of colour components: 1 grey, 3 colour (YCbCr or RGB), 4 CMYK / YCCK. */
   components: number;
+  /** The frame marker's second byte: C0 baseline, C1 extended, C2 progressive (Huffman); others not read. */
+  sof: number;
+  /** Bytes of entropy-coded data in all the scans (restart markers included). */
+  scanBytes: number;
 }
 
 /** A decoded JPEG before conversion to grey. */
@@ -39,6 +43,7 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
   const truncated = () =>
     new ImageDecodeError(`${p}the JPEG file is truncated (it ends before its end-of-image marker); copy or export it again`);
   let header: JpegHeader | null = null;
+  let scanBytes = 0;
   let at = 2;
   for (;;) {
     while (at < bytes.length && bytes[at] === 0xff && bytes[at + 1] === 0xff) at++; // fill bytes
@@ -59,11 +64,14 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
         height: (bytes[at + 5] << 8) | bytes[at + 6],
         width: (bytes[at + 7] << 8) | bytes[at + 8],
         components: bytes[at + 9],
+        sof: marker,
+        scanBytes: 0,
       };
     }
     at += 2 + length;
     if (marker === 0xda) {
       // Skip the entropy-coded scan: stop at the first FF not followed by 00 or a restart marker.
+      const scanStart = at;
       while (at + 1 < bytes.length) {
         if (bytes[at] === 0xff) {
           const next = bytes[at + 1];
@@ -72,11 +80,13 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
         at++;
       }
       if (at + 1 >= bytes.length) throw truncated();
+      scanBytes += at - scanStart;
     }
   }
   if (header === null) {
     throw new ImageDecodeError(`${p}the JPEG file has no frame header; re-save it`);
   }
+  header.scanBytes = scanBytes;
   return header;
 }
 
@@ -95,7 +105,20 @@ export function decodeJpegRaster(bytes: Uint8Array, maxPixels: number, name?: st
   if (header.width === 0 || header.height === 0) {
     throw new UnsupportedFormatError(`${p}this JPEG gives its height after the image data, which is not supported; re-save it`);
   }
+  if (header.sof !== 0xc0 && header.sof !== 0xc1 && header.sof !== 0xc2) {
+    const kind = header.sof === 0xc3 || header.sof === 0xc7 || header.sof === 0xcb || header.sof === 0xcf ? 'lossless' : header.sof >= 0xc9 ? 'arithmetic-coded' : 'hierarchical';
+    throw new UnsupportedFormatError(`${p}${kind} JPEG is not supported (only baseline and progressive); re-save it as PNG, TIFF or an ordinary JPEG`);
+  }
   checkDimensions(header.width, header.height, maxPixels, name);
+  // Huffman coding spends at least one bit on each 8 x 8 block of the largest component (a DC code of one
+  // bit; ITU-T T.81, Annexes C and F), so a file with fewer scan bytes cannot hold the size it claims: a
+  // small file claiming a huge image would otherwise be decoded at full size, mostly from nothing.
+  const blocks = Math.ceil(header.width / 8) * Math.ceil(header.height / 8);
+  if (header.scanBytes * 8 < blocks) {
+    throw new ImageDecodeError(
+      `${p}the JPEG's image data (${header.scanBytes} bytes) is too short for the ${header.width} x ${header.height} px its header gives (at least ${Math.ceil(blocks / 8)} bytes); the file is damaged or cut short: copy or export it again`,
+    );
+  }
   if (header.precision !== 8) {
     throw new UnsupportedFormatError(`${p}${header.precision}-bit JPEG is not supported; re-save as 16-bit PNG or TIFF`);
   }

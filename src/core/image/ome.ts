@@ -5,10 +5,15 @@ const UM_PER_UNIT: Record<string, number> = {
   mm: 1e3, cm: 1e4, dm: 1e5, m: 1e6,
 };
 
+/** The character of a numeric character reference, or the reference as written when it names none. */
+function codePoint(ref: string, n: number): string {
+  return Number.isInteger(n) && n >= 0 && n <= 0x10ffff ? String.fromCodePoint(n) : ref;
+}
+
 function decodeXmlEntities(s: string): string {
   return s
-    .replace(/&#x([0-9a-f]+);/gi, (_, h: string) => String.fromCodePoint(parseInt(h, 16)))
-    .replace(/&#([0-9]+);/g, (_, d: string) => String.fromCodePoint(parseInt(d, 10)))
+    .replace(/&#x([0-9a-f]+);/gi, (ref, h: string) => codePoint(ref, parseInt(h, 16)))
+    .replace(/&#([0-9]+);/g, (ref, d: string) => codePoint(ref, parseInt(d, 10)))
     .replace(/&amp;/g, '&');
 }
 

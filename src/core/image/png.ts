@@ -1,6 +1,7 @@
 import { decode as fastPngDecode, convertIndexedToRgb } from 'fast-png';
 import type { DecodedPng } from 'fast-png';
 import { ImageDecodeError, UnsupportedFormatError } from '../errors';
+import { inflateBounded } from './inflate';
 import { checkDimensions, namePrefix } from './limits';
 import type { InterleavedImage } from './grey';
 
@@ -12,6 +13,8 @@ export interface PngHeader {
   bitDepth: number;
   /** 0 grey, 2 RGB, 3 palette, 4 grey + alpha, 6 RGBA. */
   colorType: number;
+  /** 0 none, 1 Adam7. */
+  interlace: number;
 }
 
 /** A decoded PNG before conversion to grey. */
@@ -50,6 +53,7 @@ export function readPngHeader(bytes: Uint8Array, name?: string): PngHeader {
     height: view.getUint32(20),
     bitDepth: bytes[24],
     colorType: bytes[25],
+    interlace: bytes[28],
   };
   let at = 8;
   for (;;) {
@@ -61,6 +65,79 @@ export function readPngHeader(bytes: Uint8Array, name?: string): PngHeader {
     if (type === 'IEND') break;
   }
   return header;
+}
+
+/** Samples per pixel of each PNG colour type (PNG specification, section 11.2.2). */
+const CHANNELS: Record<number, number> = { 0: 1, 2: 3, 3: 1, 4: 2, 6: 4 };
+
+/** The Adam7 passes: first column, first row, column step, row step (PNG specification, section 8.2). */
+const ADAM7 = [[0, 0, 8, 8], [4, 0, 8, 8], [0, 4, 4, 8], [2, 0, 4, 4], [0, 2, 2, 4], [1, 0, 2, 2], [0, 1, 1, 2]] as const;
+
+/**
+ * The number of bytes the image data of a PNG inflates to, from its header: each row of each pass is one
+ * filter-type byte and ceil(width x bits per pixel / 8) bytes (PNG specification, sections 7.2 and 8.2).
+ * Null for a colour type or bit depth that the specification does not define (the decoder then says so).
+ */
+export function pngRawSize(h: PngHeader): number | null {
+  const channels = CHANNELS[h.colorType];
+  if (channels === undefined || ![1, 2, 4, 8, 16].includes(h.bitDepth)) return null;
+  const bpp = channels * h.bitDepth;
+  const rows = (w: number, n: number) => (w > 0 && n > 0 ? n * (1 + Math.ceil((w * bpp) / 8)) : 0);
+  if (h.interlace !== 1) return rows(h.width, h.height);
+  let total = 0;
+  for (const [x0, y0, dx, dy] of ADAM7) total += rows(Math.ceil((h.width - x0) / dx), Math.ceil((h.height - y0) / dy));
+  return total;
+}
+
+/** The most bytes an embedded ICC profile (iCCP) may inflate to; real profiles are far smaller. */
+const MAX_ICC_BYTES = 32 * 2 ** 20;
+
+/**
+ * Inflates the zlib streams of a PNG (the image data, and an embedded ICC profile) while counting their
+ * output, stopping as soon as it passes what the header promises: a file whose 16 x 16 header hides a
+ * gigabyte of image data is refused after a few megabytes, before the decoder allocates it all. A stream
+ * that is damaged otherwise is left to the decoder, which names the fault.
+ *
+ * @throws ImageDecodeError when the image data inflates to more or fewer bytes than the header's size, or the
+ *   profile to more than 32 MiB
+ */
+function checkInflatedSizes(bytes: Uint8Array, header: PngHeader, name?: string): void {
+  const expected = pngRawSize(header);
+  if (expected === null) return;
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const idat: Uint8Array[] = [];
+  let icc: Uint8Array | null = null;
+  for (let at = 8; at + 12 <= bytes.length;) {
+    const length = view.getUint32(at);
+    const type = textAscii(bytes, at + 4);
+    const data = bytes.subarray(at + 8, at + 8 + length);
+    if (type === 'IDAT') idat.push(data);
+    if (type === 'iCCP' && icc === null) {
+      const nul = data.indexOf(0);
+      if (nul >= 0) icc = data.subarray(nul + 2);
+    }
+    if (type === 'IEND') break;
+    at += 12 + length;
+  }
+  const p = namePrefix(name);
+  const r = inflateBounded(idat, expected, false);
+  if (!r.ok && r.overflow) {
+    throw new ImageDecodeError(
+      `${p}the PNG's image data inflates to more than the ${header.width} x ${header.height} px its header gives (${expected} bytes); the file is damaged or made to exhaust memory: re-save it`,
+    );
+  }
+  // Short data is refused here too, before the decoder allocates the whole image for it.
+  if (r.ok && r.length < expected) {
+    throw new ImageDecodeError(
+      `${p}the PNG's image data holds ${r.length} of the ${expected} bytes its ${header.width} x ${header.height} px header gives; the file is damaged or cut short: copy or export it again`,
+    );
+  }
+  if (icc) {
+    const q = inflateBounded([icc], MAX_ICC_BYTES, false);
+    if (!q.ok && q.overflow) {
+      throw new ImageDecodeError(`${p}the PNG's colour profile (iCCP) inflates to more than 32 MiB; the file is damaged or made to exhaust memory: re-save it without the profile`);
+    }
+  }
 }
 
 function pngError(p: string, e: unknown): ImageDecodeError {
@@ -98,6 +175,7 @@ export function decodePngRaster(bytes: Uint8Array, maxPixels: number, name?: str
   const p = namePrefix(name);
   const header = readPngHeader(bytes, name);
   checkDimensions(header.width, header.height, maxPixels, name);
+  checkInflatedSizes(bytes, header, name);
   let png: DecodedPng;
   try {
     png = fastPngDecode(bytes, { checkCrc: true });
@@ -110,7 +188,15 @@ export function decodePngRaster(bytes: Uint8Array, maxPixels: number, name?: str
 
   if (png.palette) {
     const palette = png.palette;
-    const rgb = convertIndexedToRgb(png);
+    let rgb: Uint8Array;
+    try {
+      if (palette.length === 0) throw new Error('empty palette');
+      rgb = convertIndexedToRgb(png);
+    } catch {
+      throw new ImageDecodeError(
+        `${p}the PNG's palette (${palette.length} colour${palette.length === 1 ? '' : 's'}) does not cover the colour numbers its pixels use; the file is damaged: re-save it`,
+      );
+    }
     const channels = palette[0].length as 3 | 4;
     const colour = palette.some((c) => c[0] !== c[1] || c[1] !== c[2]);
     return { image: { width, height, data: rgb, channels, bitDepth: 8 }, colour, umPerPx };

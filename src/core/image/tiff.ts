@@ -1,9 +1,19 @@
 import { fromArrayBuffer } from 'geotiff';
 import type { GeoTIFF, GeoTIFFImage } from 'geotiff';
-import { ImageDecodeError, TessellabError, UnsupportedFormatError } from '../errors';
+import { ImageDecodeError, ImageTooLargeError, TessellabError, UnsupportedFormatError } from '../errors';
 import { checkDimensions, namePrefix } from './limits';
 import type { InterleavedImage } from './grey';
 import { readOmePixelSize } from './ome';
+import { BlockError, boundedPool } from './tiffCodecs';
+
+/**
+ * The most pages (IFDs) read from one TIFF: a time series of a few thousand frames fits, a chain of IFDs
+ * that never ends (or loops back on itself) does not.
+ */
+export const MAX_TIFF_PAGES = 10000;
+
+/** The most pixels of all pages of one TIFF together (one billion: 1 to 2 GB of grey samples). */
+export const MAX_TIFF_TOTAL_PIXELS = 1e9;
 
 /** A decoded TIFF before conversion to grey: one raster per page (IFD). */
 export interface TiffRaster {
@@ -18,6 +28,13 @@ export interface TiffRaster {
 
 /** TIFF compression codes (TIFF 6.0 tag 259 and registered extensions) that the decoder reads. */
 const SUPPORTED_COMPRESSION = new Set([1, 5, 8, 32946, 32773]);
+
+/**
+ * The most bytes one stored byte can decode to, by compression: none 1; LZW at most 4096 bytes from one
+ * code of at least 9 bits (a table entry is never longer than the table); Deflate 1032 (a 258-byte match
+ * coded in two bits, RFC 1951); PackBits 64 (two bytes repeat one 128 times).
+ */
+const MAX_EXPANSION: Record<number, number> = { 1: 1, 5: (4096 * 8) / 9, 8: 1032, 32946: 1032, 32773: 64 };
 
 const COMPRESSION_NAMES: Record<number, string> = {
   2: 'CCITT modified Huffman', 3: 'CCITT Group 3', 4: 'CCITT Group 4', 6: 'old-style JPEG', 7: 'JPEG',
@@ -107,15 +124,33 @@ async function inspectPage(image: GeoTIFFImage, bytes: Uint8Array, index: number
 
   // Strips or tiles must lie inside the file; geotiff would otherwise read past the end.
   const tiled = image.getFileDirectory().hasTag('TileOffsets');
+  if (tiled) {
+    // A tile is decoded whole; one far larger than the page (65536 x 65536 on a 16 x 16 page) is a bomb.
+    const tw = first(await tag(image, 'TileWidth'), 0);
+    const th = first(await tag(image, 'TileLength'), 0);
+    if (!(tw > 0 && th > 0) || tw * th > Math.max(4 * width * height, 1024 * 1024)) {
+      throw new ImageDecodeError(`${p}the TIFF's tiles (${tw} x ${th} px) do not fit its ${width} x ${height} px page${page}; the file is damaged: re-save it`);
+    }
+  }
   const offsets = list(await tag(image, tiled ? 'TileOffsets' : 'StripOffsets'));
   const counts = list(await tag(image, tiled ? 'TileByteCounts' : 'StripByteCounts'));
   if (offsets.length === 0 || counts.length !== offsets.length) {
     throw new ImageDecodeError(`${p}the TIFF has no readable ${tiled ? 'tile' : 'strip'} table${page}; re-save it`);
   }
+  let stored = 0;
   for (let i = 0; i < offsets.length; i++) {
     if (offsets[i] + counts[i] > bytes.length) {
       throw new ImageDecodeError(`${p}the TIFF file is truncated (its image data ends after the file does)${page}; copy or export it again`);
     }
+    stored += counts[i];
+  }
+  // The page's raster is allocated before its strips are decoded: a few stored bytes must not promise
+  // 100 megapixels. No compression read here expands more than MAX_EXPANSION says.
+  const needed = (width * height * samplesPerPixel * bits) / 8;
+  if (stored * MAX_EXPANSION[compression]! < needed) {
+    throw new ImageDecodeError(
+      `${p}the TIFF's image data${page} (${stored} bytes) is too short for the ${width} x ${height} px its header gives; the file is damaged or cut short: copy or export it again`,
+    );
   }
   return { image, width, height, bits, photometric, samplesPerPixel };
 }
@@ -127,9 +162,14 @@ async function readPage(info: PageInfo, name?: string, index = 0): Promise<{ ras
   const samples = photometric === 2 ? [0, 1, 2] : [0];
   let data: Uint8Array | Uint16Array;
   try {
-    const r = await image.readRasters({ samples, interleave: true });
+    const r = await image.readRasters({ samples, interleave: true, pool: boundedPool(image.getFileDirectory().hasTag('TileOffsets') ? null : height) as never });
     data = r as unknown as Uint8Array | Uint16Array;
   } catch (e) {
+    if (e instanceof BlockError && e.overflow) {
+      throw new ImageDecodeError(
+        `${p}page ${index + 1} of the TIFF decodes to more than the ${width} x ${height} px its header gives; the file is damaged or made to exhaust memory: re-save it`,
+      );
+    }
     const why = e instanceof Error ? e.message.replace(/\s+/g, ' ') : String(e);
     throw new ImageDecodeError(`${p}page ${index + 1} of the TIFF could not be decoded (${why}); re-save it as uncompressed or LZW TIFF`);
   }
@@ -204,8 +244,31 @@ export async function decodeTiffRaster(bytes: Uint8Array, maxPixels: number, nam
   let tiff: GeoTIFF;
   try {
     tiff = await fromArrayBuffer(buffer);
-    const count = await tiff.getImageCount();
-    for (let i = 0; i < count; i++) infos.push(await inspectPage(await tiff.getImage(i), bytes, i, maxPixels, name));
+    // The chain of IFDs is walked here rather than counted by geotiff, which follows a chain that loops back
+    // on itself for ever: each IFD is read once, at most MAX_TIFF_PAGES of them.
+    const seen = new Set<number>([tiff.firstIFDOffset]);
+    let total = 0;
+    for (let i = 0; ; i++) {
+      const image = await tiff.getImage(i);
+      const info = await inspectPage(image, bytes, i, maxPixels, name);
+      infos.push(info);
+      total += info.width * info.height;
+      if (total > MAX_TIFF_TOTAL_PIXELS) {
+        throw new ImageTooLargeError(`${p}the first ${i + 1} pages of the TIFF hold more than ${MAX_TIFF_TOTAL_PIXELS / 1e6} megapixels together, more than is read from one file; split the series into several files`);
+      }
+      const next = image.getFileDirectory().nextIFDByteOffset;
+      if (!next) break;
+      if (seen.has(next)) {
+        throw new ImageDecodeError(`${p}the TIFF's list of pages loops back on itself after page ${i + 1} (the file is damaged); re-save it`);
+      }
+      if (next >= bytes.length) {
+        throw new ImageDecodeError(`${p}the TIFF file is truncated (page ${i + 2} would start after the end of the file); copy or export it again`);
+      }
+      if (i + 1 >= MAX_TIFF_PAGES) {
+        throw new ImageTooLargeError(`${p}the TIFF has more than ${MAX_TIFF_PAGES} pages, more than is read from one file; split the series into several files`);
+      }
+      seen.add(next);
+    }
   } catch (e) {
     if (e instanceof TessellabError) throw e;
     const why = e instanceof Error ? e.message.replace(/\s+/g, ' ') : String(e);
@@ -219,12 +282,21 @@ export async function decodeTiffRaster(bytes: Uint8Array, maxPixels: number, nam
     colour ||= c;
   }
 
-  const firstImage = infos[0].image;
-  const description = await tag(firstImage, 'ImageDescription');
-  const ome = typeof description === 'string' ? readOmePixelSize(description) : null;
-  if (ome && ome.xUm !== null) {
-    return { pages, colour, umPerPx: ome.xUm, umPerPxY: ome.yUm };
+  return { pages, colour, ...(await pixelSize(infos[0].image)) };
+}
+
+/**
+ * The pixel size a page's tags give: OME-XML PhysicalSizeX/Y in the ImageDescription when present, else the
+ * resolution tags. Damaged tags give no pixel size rather than an error: the pixels are still good.
+ */
+async function pixelSize(image: GeoTIFFImage): Promise<{ umPerPx: number | null; umPerPxY: number | null }> {
+  try {
+    const description = await tag(image, 'ImageDescription');
+    const ome = typeof description === 'string' ? readOmePixelSize(description) : null;
+    if (ome && ome.xUm !== null) return { umPerPx: ome.xUm, umPerPxY: ome.yUm };
+    const res = await resolutionUm(image);
+    return { umPerPx: res.x, umPerPxY: res.y };
+  } catch {
+    return { umPerPx: null, umPerPxY: null };
   }
-  const res = await resolutionUm(firstImage);
-  return { pages, colour, umPerPx: res.x, umPerPxY: res.y };
 }

@@ -3,6 +3,14 @@
  */
 import Papa from 'papaparse';
 import { CsvError } from '../errors';
+import { parseDecimal } from '../numbers';
+
+/**
+ * The largest coordinate of a point, in px or µm: a billion, beyond the side of any image or mosaic. A
+ * coordinate past it is a slip or a damaged file, and past about 1e15 doubles cannot tell neighbouring
+ * points apart any more.
+ */
+export const MAX_COORDINATE = 1e9;
 
 export interface PointsCsv {
   /** Interleaved x, y, in the units of the file (each coincident point once, unless kept). */
@@ -68,9 +76,9 @@ const Y_NAMES = ['y', 'y_px', 'y_um', 'cy', 'centroid_y', 'ypos', 'y (px)', 'y (
 /**
  * Parses a CSV of points. With a header, the x and y columns are found by name (x, x_px, x_um, ...);
  * without one, the first two columns are x and y. Blank lines are skipped. Every other line must hold
- * two finite numbers, or a CsvError names the line. Lines that repeat an earlier line's x and y are merged
- * into it, with a warning that says how many (coincident points cannot be tessellated), unless
- * `duplicates: 'keep'` (events, where two at one spot are two events).
+ * two numbers in decimal notation within ±{@link MAX_COORDINATE}, or a CsvError names the line. Lines that
+ * repeat an earlier line's x and y are merged into it, with a warning that says how many (coincident points
+ * cannot be tessellated), unless `duplicates: 'keep'` (events, where two at one spot are two events).
  *
  * @param text the file's text
  * @param opts.name file name for messages
@@ -94,7 +102,7 @@ export function parsePointsCsv(text: string, opts: { name?: string; duplicates?:
     xi = lower.findIndex((c) => X_NAMES.includes(c));
     yi = lower.findIndex((c) => Y_NAMES.includes(c));
     if (xi < 0 || yi < 0) {
-      throw new CsvError(`${where}line 1 is a header without x and y columns (found: ${first.join(', ')}); name them x and y, or remove the header.`);
+      throw new CsvError(`${where}line 1 is a header without x and y columns (found: ${shown(first.join(', '))}); name them x and y, or remove the header.`);
     }
     xColumn = first[xi]!;
     yColumn = first[yi]!;
@@ -111,10 +119,13 @@ export function parsePointsCsv(text: string, opts: { name?: string; duplicates?:
     const xs = row[xi]?.trim() ?? '';
     const ys = row[yi]?.trim() ?? '';
     if (xs === '' || ys === '') throw new CsvError(`${where}line ${line} is missing ${xs === '' ? 'x' : 'y'}; every line needs x and y.`);
-    const x = Number(xs);
-    const y = Number(ys);
+    const x = parseDecimal(xs);
+    const y = parseDecimal(ys);
     if (!Number.isFinite(x) || !Number.isFinite(y)) {
-      throw new CsvError(`${where}line ${line} has a value that is not a number (${JSON.stringify(Number.isFinite(x) ? ys : xs)}); fix or remove that line.`);
+      throw new CsvError(`${where}line ${line} has a value that is not a number (${JSON.stringify(shown(Number.isFinite(x) ? ys : xs))}) in decimal notation; fix or remove that line.`);
+    }
+    if (Math.abs(x) > MAX_COORDINATE || Math.abs(y) > MAX_COORDINATE) {
+      throw new CsvError(`${where}line ${line} has a coordinate (${Math.abs(x) > MAX_COORDINATE ? xs : ys}) beyond ±${MAX_COORDINATE.toExponential()}, far outside any image; check the units of the file or fix that line.`);
     }
     points[2 * (r - start)] = x;
     points[2 * (r - start) + 1] = y;
@@ -130,6 +141,13 @@ export function parsePointsCsv(text: string, opts: { name?: string; duplicates?:
     );
   }
   return { points: merged.points, count: n - merged.duplicates, xColumn, yColumn, duplicates: merged.duplicates, warnings };
+}
+
+/** Text from a file, fit for a one-line message: control characters as spaces, at most 80 characters. */
+function shown(text: string): string {
+  // eslint-disable-next-line no-control-regex
+  const flat = text.replace(/[\u0000-\u001f\u007f]+/g, ' ');
+  return flat.length > 80 ? `${flat.slice(0, 77)}...` : flat;
 }
 
 /** 1-based line numbers of the non-blank lines of a text. */

@@ -59,7 +59,7 @@ describe('tessellab analyze: bad input', () => {
     ['an unsupported TIFF compression', () => file('z.tif', readFileSync('test/fixtures/images/grey8-zstd.tif')), /compression .*not supported/i],
     ['a 1 x 1 image', () => file('dot.png', encodePng({ width: 1, height: 1, data: new Uint8Array([9]), channels: 1, bitDepth: 8 })), /too small.*16 x 16/],
     ['a blank (uniform) image', () => file('blank.png', encodePng({ width: 64, height: 64, data: new Uint8Array(64 * 64).fill(128), channels: 1, bitDepth: 8 })), /No cells found.*uniform/],
-    ['an image over the pixel limit', () => file('huge.png', pngHeaderOnly(30000, 30000)), /exceeds the limit of 268 megapixels; crop or downsample/],
+    ['an image over the pixel limit', () => file('huge.png', pngHeaderOnly(30000, 30000)), /exceeds the limit of 100 megapixels; crop or downsample/],
   ];
   for (const [what, make, words] of cases) {
     it(`${what}: one clear line, exit 1, and the good image of the batch is still written`, async () => {
