@@ -25,6 +25,8 @@ import { tessellate } from './tessellate/index';
 import type { Tessellation } from './tessellate/types';
 import type { Columns, GreyImage, LabelImage, Progress, Rect } from './types';
 import { anisotropy, type Anisotropy } from './stats/anisotropy';
+import { hasPixel, maskGeometry, type MaskGeometry } from './mask/geometry';
+import { maskLabels, maskTessellation } from './mask/observe';
 
 export type AnalyzeInput =
   | { kind: 'image'; image: GreyImage; name?: string }
@@ -42,6 +44,12 @@ export interface AnalyzeOptions {
   referencePool?: ReferencePool | null;
   /** Where settings.umPerPx came from, recorded in the summary; default 'user' when it is set, else 'none'. */
   calibrationSource?: CalibrationSource;
+  /**
+   * A tissue mask: one byte per pixel of the image (points: of the width x height field), nonzero = tissue.
+   * Only the cells with most of their pixels in it are kept (cut to it; points: those in it); cells touching its
+   * border are edge cells; it is the field of the statistics and of the random-seeding reference.
+   */
+  mask?: Uint8Array;
 }
 
 /** The calibration source an analysis records. */
@@ -119,7 +127,7 @@ export async function analyze(input: AnalyzeInput, settingsInput: SettingsInput 
   let seg: SegmentResult;
   try {
     seg = settings.pattern === 'walls'
-      ? segmentWalls(cv, crop, settings, (count, minArea) => (early = startReferenceFor(settings, count, field, minArea, opts)))
+      ? segmentWalls(cv, crop, settings, opts.mask ? undefined : (count, minArea) => (early = startReferenceFor(settings, count, field, minArea, opts)))
       : segmentBodies(cv, crop, settings);
     progress('segment', 1);
     check(opts.signal);
@@ -156,8 +164,8 @@ export async function reanalyzeLabels(
  * settings ask for none). Its result() never throws but for cancellation: a reference that cannot be
  * drawn becomes `{ referenceError }`, which the randomness report shows as a warning beside what was computed.
  */
-function startReferenceFor(settings: Settings, cells: number, field: Rect, minCellAreaPx: number | undefined, opts: AnalyzeOptions) {
-  const refOpts = referenceOptionsFor(settings, cells, field, minCellAreaPx);
+function startReferenceFor(settings: Settings, cells: number, field: Rect, minCellAreaPx: number | undefined, opts: AnalyzeOptions, mask?: MaskGeometry) {
+  const refOpts = referenceOptionsFor(settings, cells, field, minCellAreaPx, mask);
   if (!refOpts) return null;
   // While the analysis waits for it, the reference's progress is the statistics stage's (up to 90 %).
   let waiting = false;
@@ -188,7 +196,7 @@ function startReferenceFor(settings: Settings, cells: number, field: Rect, minCe
 type ReferenceStart = ReturnType<typeof startReferenceFor>;
 
 async function measureLabels(
-  labels: LabelImage,
+  segmented: LabelImage,
   image: GreyImage | null,
   field: Rect,
   width: number,
@@ -200,8 +208,13 @@ async function measureLabels(
 ): Promise<Analysis> {
   const progress = opts.onProgress ?? (() => {});
   progress('measure', 0);
+  // A tissue mask: the cells with most of their pixels in it, cut to it.
+  const geom = opts.mask ? maskGeometry(opts.mask, width, height, field) : undefined;
+  const cut = geom ? maskLabels(segmented, image?.data, field, opts.mask!, width) : null;
+  const labels = cut ? cut.labels : segmented;
   if (labels.count < 1) {
     early?.cancel();
+    if (cut) throw new NoCellsError(`No cell has most of its pixels in the mask (${segmented.count} found in the field); check that the mask marks the tissue with nonzero pixels.`);
     throw new NoCellsError('No cells found. Check the pattern kind (walls or bodies) and the threshold, or use a larger field.');
   }
   // The reference needs only the count, the field and the minimum area: the pool draws it meanwhile
@@ -211,9 +224,9 @@ async function measureLabels(
     early.cancel();
     reference = null;
   }
-  reference ??= startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts);
+  reference ??= startReferenceFor(settings, labels.count, field, segment?.minCellAreaPx, opts, geom);
   try {
-    const sums = cellSums(labels, image?.data);
+    const sums = cut ? cut.sums : cellSums(labels, image?.data);
     await reference?.tick();
     const n = sums.count;
     const pts = new Float64Array(2 * n);
@@ -228,11 +241,11 @@ async function measureLabels(
     progress('measure', 1);
     check(opts.signal);
     progress('tessellate', 0);
-    const tess = tessellate(pts, field);
+    const tess = geom ? maskTessellation(tessellate(pts, field), geom) : tessellate(pts, field);
     progress('tessellate', 1);
     await reference?.tick();
-    const neighbours = new Int32Array(n);
-    for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
+    const neighbours = cut ? cut.sides : new Int32Array(n);
+    if (!cut) for (let c = 0; c < n; c++) neighbours[c] = sums.neighbourOffsets[c + 1]! - sums.neighbourOffsets[c]!;
     // The labels in image coordinates (a copy only when the field is inset), for events and the statistics.
     const imageLabels = labelsInImage(labels, field);
     const events = opts.events ? assignEvents(opts.events, imageLabels, tess) : undefined;
@@ -254,7 +267,9 @@ async function measureLabels(
     const columns = measureColumns(ctx, settings.pattern);
     check(opts.signal);
     // Aligned, elongated cells: the spacing statistics and their reference move to the stretched field.
-    const aniso = cellAnisotropy(columns, sums.edge, settings.reference.alpha);
+    let aniso = cellAnisotropy(columns, sums.edge, settings.reference.alpha);
+    // In a mask the spacing statistics are not stretched: aligned cells leave them out of the verdict.
+    if (geom && aniso.spacing === 'stretched') aniso = { ...aniso, spacing: 'left out', stretch: null };
     if (aniso.spacing === 'stretched' && reference) {
       reference.cancel();
       const s = aniso.stretch!;
@@ -264,7 +279,9 @@ async function measureLabels(
     // Grain size before the statistics, so that it runs while the pool is drawing the reference.
     let grain: GrainSizeResult | null = null;
     let grainSummary: GrainSizeSummary | undefined;
-    if (settings.pattern === 'walls') {
+    if (settings.pattern === 'walls' && geom) {
+      grainSummary = { G: null, error: 'The grain size is not rated in a tissue mask: the ASTM E112 counts need a rectangular field. Analyse a rectangle of the grains for it.' };
+    } else if (settings.pattern === 'walls') {
       progress('grain size', 0);
       const g = rateGrainSize(labels, field, settings);
       grain = g.result;
@@ -283,7 +300,8 @@ async function measureLabels(
       tessellation: tess,
       sides,
       area: sums.n,
-      edge: sums.edge,
+      // Bodies in a mask: also those whose Voronoi cell reaches its border, as in the reference.
+      edge: geom && settings.pattern === 'bodies' ? sums.edge.map((e, i) => e | tess.edge[i]!) : sums.edge,
       bbox: bboxOf(sums, field),
       labels: imageLabels,
       settings,
@@ -291,9 +309,10 @@ async function measureLabels(
       minCellAreaPx: segment?.minCellAreaPx,
       solidity: columns.solidity ?? null,
       anisotropy: aniso,
+      mask: geom,
     });
     const summary = buildSummary({
-      settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts),
+      settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts), mask: geom,
       events: events ? eventsSummary(events, sums.n, sums.edge) : undefined, grainSize: grainSummary,
     });
     progress('statistics', 1);
@@ -373,13 +392,16 @@ async function analyzePoints(points: Float64Array, width: number, height: number
     pts = points.map((v) => v * k);
   }
   const field = settings.field ? { ...settings.field } : { x0: 0, y0: 0, x1: width, y1: height };
+  // A tissue mask: the points in it.
+  const geom = opts.mask ? maskGeometry(opts.mask, width, height, resolveField(settings.field, width, height)) : undefined;
+  if (geom) pts = pts.filter((_, k) => hasPixel(geom.pixels, Math.floor(pts[k & ~1]!), Math.floor(pts[k | 1]!)));
   const n = pts.length / 2;
-  if (n < 1) throw new NoCellsError('The point set is empty; give at least one x, y pair.');
-  const reference = startReferenceFor(settings, n, field, undefined, opts);
+  if (n < 1) throw new NoCellsError(geom ? `None of the ${points.length / 2} points lies in the mask; check that the mask marks the tissue with nonzero pixels.` : 'The point set is empty; give at least one x, y pair.');
+  const reference = startReferenceFor(settings, n, field, undefined, opts, geom);
   const progress = opts.onProgress ?? (() => {});
   try {
     progress('tessellate', 0);
-    const tess = tessellate(pts, field);
+    const tess = geom ? maskTessellation(tessellate(pts, field), geom) : tessellate(pts, field);
     progress('tessellate', 1);
     await reference?.tick();
     const x = new Float64Array(n);
@@ -404,9 +426,9 @@ async function analyzePoints(points: Float64Array, width: number, height: number
     };
     const columns = measureColumns(ctx, 'points');
     progress('statistics', 0);
-    const rnd = randomness({ ...(reference ? await reference.result() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null });
+    const rnd = randomness({ ...(reference ? await reference.result() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null, mask: geom });
     const summary = buildSummary({
-      settings, width, height, field, count: n, edge: tess.edge, segment: null, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts),
+      settings, width, height, field, count: n, edge: tess.edge, segment: null, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts), mask: geom,
       events: events ? eventsSummary(events, tess.area, tess.edge) : undefined,
     });
     progress('statistics', 1);

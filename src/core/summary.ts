@@ -15,6 +15,7 @@ import type { Anisotropy } from './stats/anisotropy';
 import type { ReferenceSummary } from './reference/summary';
 import type { EventsDispersion } from './stats/events';
 import type { Rect } from './types';
+import type { MaskGeometry } from './mask/geometry';
 
 /** The version of summary.json's layout; raised whenever a key changes meaning or is removed. */
 export const SUMMARY_VERSION = 2;
@@ -76,6 +77,18 @@ export type GrainSizeSummary =
   }
   | { G: null; error: string };
 
+/**
+ * A tissue mask, the field of the statistics: its tissue pixels, area and perimeter (summary units; the
+ * perimeter is the measurements' weighted marching-squares length, the field's border counting) and the
+ * bounding box of the tissue (px).
+ */
+export interface MaskSummary {
+  pixels: number;
+  area: number;
+  perimeter: number;
+  bbox: Rect;
+}
+
 /** summary.json. Lengths and areas in µm and µm² when calibrated (umPerPx not null), else px and px². */
 export interface Summary {
   /** The layout version, {@link SUMMARY_VERSION}. */
@@ -87,8 +100,8 @@ export interface Summary {
   umPerPx: number | null;
   units: { length: 'px' | 'um'; area: 'px2' | 'um2' };
   calibration: { source: CalibrationSource };
-  /** The analysed rectangle (px) and its area (summary units). */
-  field: Rect & { area: number };
+  /** The analysed rectangle (px) and its area (summary units), and the tissue mask in it when one was given. */
+  field: Rect & { area: number; mask?: MaskSummary };
   segmentation: SegmentInfo | null;
   /** The check before the verdict; when ok is false, randomness.verdict is null ("not rated") with the reason. */
   quality: Quality;
@@ -99,7 +112,7 @@ export interface Summary {
     edge: number;
     /** Cells in the statistics (interior, at or above the minimum area; see the edge rule). */
     inStatistics: number;
-    /** Cells per unit area of the field (all cells). */
+    /** Cells per unit area of the field, or of the tissue mask when one was given (all cells). */
     densityPerArea: number;
   };
   /** Areas of the cells in the statistics: segmented areas (walls, bodies) or Voronoi areas (points). */
@@ -178,6 +191,8 @@ export interface SummaryInput {
   calibrationSource: CalibrationSource;
   events?: EventsSummary;
   grainSize?: GrainSizeSummary;
+  /** The tissue mask, when one was given. */
+  mask?: MaskGeometry;
 }
 
 /** The figures of an analysis as summary.json holds them. Pure: the same input gives the same object. */
@@ -189,6 +204,8 @@ export function buildSummary(inp: SummaryInput): Summary {
   const k = u ?? 1;
   const a2 = k * k;
   const fieldArea = (field.x1 - field.x0) * (field.y1 - field.y0);
+  const m = inp.mask;
+  const mask: MaskSummary | undefined = m ? { pixels: m.area, area: m.area * a2, perimeter: m.perimeter * k, bbox: { ...m.bbox } } : undefined;
   const distribution: Record<string, number> = {};
   const counts: Record<string, number> = {};
   const reference: Record<string, number | null> = {};
@@ -208,10 +225,10 @@ export function buildSummary(inp: SummaryInput): Summary {
     umPerPx: u,
     units: { length: u === null ? 'px' : 'um', area: u === null ? 'px2' : 'um2' },
     calibration: { source: inp.calibrationSource },
-    field: { ...field, area: fieldArea * a2 },
+    field: { ...field, area: fieldArea * a2, ...(mask ? { mask } : {}) },
     segmentation: inp.segment,
     quality: r.quality,
-    cells: { count, interior: nInterior, edge: count - nInterior, inStatistics: r.interiorCells, densityPerArea: count / (fieldArea * a2) },
+    cells: { count, interior: nInterior, edge: count - nInterior, inStatistics: r.interiorCells, densityPerArea: count / ((m ? m.area : fieldArea) * a2) },
     area: {
       mean: r.areas.mean === null ? null : r.areas.mean * a2, cv: r.areas.cv, variance: r.areas.variance, gammaShape: r.areas.gammaShape, ksDistance: r.areas.ksDistance,
       n: r.interiorCells, source: settings.pattern === 'points' ? 'voronoi' : 'segmentation',

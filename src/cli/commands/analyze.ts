@@ -16,6 +16,7 @@ import { parsePointsCsv } from '../../core/segment/points';
 import { SUMMARY_VERSION, type FailedSummary } from '../../core/summary';
 import { analyseFile } from '../../app/analyse';
 import { openFile } from '../../app/open';
+import { maskFor, openMask, type OpenedMask } from '../../app/mask';
 import { toWireError } from '../../app/wire';
 import { resolveSettings, type Settings, type SettingsInput } from '../../core/settings';
 import type { ClosablePool } from '../../core/reference/workerPool';
@@ -31,7 +32,7 @@ import { softwareVersion } from '../../node/version';
 const USAGE = [
   'tessellab analyze IMAGE... [--files-from LIST|-] [--shard I/N] [--skip-existing] [--threads N]',
   '                         [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json]',
-  '                         [--events FILE.csv] [--size WxH (points)]',
+  '                         [--events FILE.csv] [--size WxH (points)] [--mask FILE.png]',
 ].join('\n');
 
 /** At most this many threads unless --threads asks for more (the reference gains little beyond). */
@@ -51,7 +52,7 @@ export const command: Command = {
   ].join('\n'),
   usage: USAGE,
   async run(argv) {
-    const a = parseArgs(argv, ['pattern', 'um-per-px', 'out', 'settings', 'events', 'size', 'files-from', 'shard', 'threads'], ['skip-existing']);
+    const a = parseArgs(argv, ['pattern', 'um-per-px', 'out', 'settings', 'events', 'size', 'files-from', 'shard', 'threads', 'mask'], ['skip-existing']);
     const paths = [...a.positional];
     if (a.options.has('files-from')) paths.push(...(await readList(a.options.get('files-from')!)));
     if (paths.length === 0) throw new SettingsError(`No input given. Usage: ${USAGE}`);
@@ -67,6 +68,9 @@ export const command: Command = {
       // Two events at one spot are two events: duplicates are kept.
       events = parsePointsCsv(await readText(f), { name: basename(f), duplicates: 'keep' }).points;
     }
+    // A tissue mask (nonzero = tissue) of the images' size: the field of the statistics.
+    const maskFile = a.options.get('mask');
+    const mask = maskFile ? await openMask(basename(maskFile), await readBytes(maskFile)) : null;
     const plan = planInputs(paths);
     for (const n of plan.notes) process.stderr.write(`tessellab analyze: ${n}\n`);
     const inputs = shardOf(plan.inputs, shard);
@@ -74,7 +78,7 @@ export const command: Command = {
     // thread is the caller's own.
     const referencePool = threads > 1 ? createNodeReferencePool(threads - 1) : null;
     try {
-      return await withCleanStop(() => runBatch({ inputs, shard, total: plan.inputs.length, base, outDir, events, size, skipExisting: a.flags.has('skip-existing'), referencePool }));
+      return await withCleanStop(() => runBatch({ inputs, shard, total: plan.inputs.length, base, outDir, events, size, skipExisting: a.flags.has('skip-existing'), referencePool, mask }));
     } finally {
       await referencePool?.close();
     }
@@ -91,6 +95,7 @@ interface Batch {
   size: [number, number] | null;
   skipExisting: boolean;
   referencePool: ClosablePool | null;
+  mask: OpenedMask | null;
 }
 
 async function runBatch(b: Batch): Promise<number> {
@@ -119,7 +124,9 @@ async function runBatch(b: Batch): Promise<number> {
       const opened = await openFile(file, bytes, { as: base.pattern === 'points' ? 'points' : 'image', size: b.size });
       if (opened.kind === 'points') for (const w of opened.warnings ?? []) say(`warning: ${w}`);
       if (opened.kind === 'image' && opened.pages.length > 1) say(`${opened.pages.length} pages; analysing the first (use kinetics for a series)`);
-      const analysis = await analyseFile(opened, base, { events: b.events, referencePool: b.referencePool, onProgress: (s, f) => f === 0 && say(s) });
+      const analysis = await analyseFile(opened, base, {
+        events: b.events, referencePool: b.referencePool, onProgress: (s, f) => f === 0 && say(s), ...(b.mask ? { mask: maskFor(b.mask, opened.width, opened.height) } : {}),
+      });
       say('writing');
       const outlines = await outlinesOf(analysis);
       // imageFiles names the files after the file's stem; this run's name for the input replaces it.

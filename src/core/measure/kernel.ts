@@ -56,7 +56,7 @@ export const PERIMETER_WEIGHT_CORNER = 0.670015;
  * (bit 0 top-left, 1 top-right, 2 bottom-left, 3 bottom-right). Saddles (diagonal pairs) are read as two
  * separate corners, which matches 4-connected cells.
  */
-const MS_LEN = (() => {
+export const MS_LEN = (() => {
   const t = new Float64Array(16);
   for (let m = 0; m < 16; m++) {
     const bits = (m & 1) + ((m >> 1) & 1) + ((m >> 2) & 1) + ((m >> 3) & 1);

@@ -13,7 +13,8 @@ export function clearReferenceCache(): void {
 function cacheKey(o: ReferenceOptions): string {
   const f = o.field;
   const minArea = o.minCellAreaPx && o.minCellAreaPx > 0 ? o.minCellAreaPx : 0;
-  return JSON.stringify([o.cells, f.x0, f.y0, f.x1, f.y1, o.replicates, o.seed, o.edgeRule, minArea, o.layout ?? 'seeds', o.density ?? null]);
+  const key = [o.cells, f.x0, f.y0, f.x1, f.y1, o.replicates, o.seed, o.edgeRule, minArea, o.layout ?? 'seeds', o.density ?? null];
+  return JSON.stringify(o.mask ? [...key, o.mask.key] : key);
 }
 
 /** The cached reference for these options (reported to onProgress as done), or null. */

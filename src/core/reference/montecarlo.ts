@@ -19,6 +19,10 @@ import { PV_AREA_GAMMA_SHAPE } from './constants';
 import { cachedReferenceFor, rememberReference } from './cache';
 import { countFinite, ecdfOnGrid, envelope, meanSd, type Envelope } from './envelope';
 import { STATISTICS, STATISTIC_KEYS, type PatternCurves, type PatternFigures, type ReferenceCurves, type StatisticKey } from '../stats/registry';
+import type { MaskGeometry } from '../mask/geometry';
+import { maskCovariance, type SetCovariance } from '../mask/covariance';
+import { maskDensity, maskRegion, maskReplicateCells, seedsInMask } from './masked';
+import { classRow, concat, pooledClasses, visibleCentroids } from './rows';
 
 /**
  * How the observed cells relate to the field.
@@ -49,6 +53,12 @@ export interface ReferenceOptions {
    * Integral Geometry and Geometric Probability; derived, memory).
    */
   density?: number;
+  /**
+   * A tissue mask inside `field`: the field of the statistics. 'seeds' draws the seeds uniformly in the mask;
+   * 'window' draws them around it and keeps the cells with most of their pixels in it, as the observed
+   * cells are kept; cells touching its border are edge cells; the edge rule is 'exclude'.
+   */
+  mask?: MaskGeometry;
   /** Called after each replicate with the fraction done (once with 1 when the reference comes from the cache). */
   onProgress?: (fraction: number) => void;
   /**
@@ -72,7 +82,11 @@ export const AREA_GRID_MAX = 4;
 
 /** The reference: per-replicate statistics, their summaries and the envelopes of the distributions. */
 export interface Reference {
-  options: { cells: number; field: Rect; replicates: number; seed: number; edgeRule: EdgeRule; minCellAreaPx: number; layout: ReferenceLayout; density: number };
+  options: {
+    cells: number; field: Rect; replicates: number; seed: number; edgeRule: EdgeRule; minCellAreaPx: number; layout: ReferenceLayout; density: number;
+    /** The tissue mask's area (px²) and perimeter (px), when the reference was drawn in one. */
+    mask?: { area: number; perimeter: number };
+  };
   /** Seeds drawn per replicate (in the guard region for 'window'), raised for the cells the minimum area hides. */
   seedsPerReplicate: number;
   /** Replicate values of each statistic, length R (NaN where a replicate could not give it). */
@@ -166,6 +180,9 @@ export interface ReferencePlan {
   radii: Float64Array;
   /** Normalised areas at which the ECDF is tabulated. */
   areaGrid: Float64Array;
+  /** The tissue mask the seeds and cells are drawn in, or null (the field), and its set covariance for the L-function. */
+  mask: MaskGeometry | null;
+  window: SetCovariance | null;
   warnings: string[];
 }
 
@@ -184,9 +201,10 @@ export function planReference(opts: ReferenceOptions): ReferencePlan {
   const W = field.x1 - field.x0;
   const H = field.y1 - field.y0;
   const warnings: string[] = [];
-  const A = W * H;
+  const mask = opts.mask ?? null;
+  const A = mask ? mask.area : W * H;
   let density = opts.density;
-  if (density === undefined) density = layout === 'window' ? windowDensity(cells, W, H) : cells / A;
+  if (density === undefined) density = mask ? maskDensity(cells, mask, layout) : layout === 'window' ? windowDensity(cells, W, H) : cells / A;
   if (!(density > 0) || !Number.isFinite(density)) throw new SettingsError(`The seed density must be a positive number per px²; got ${density}.`);
   const hidden = minArea > 0 ? gammaCdf(minArea * density, PV_AREA_GAMMA_SHAPE.value, PV_AREA_GAMMA_SHAPE.value) : 0;
   if (hidden > 0.5) {
@@ -194,14 +212,16 @@ export function planReference(opts: ReferenceOptions): ReferencePlan {
   }
   const seedDensity = density / Math.max(0.05, 1 - hidden);
   const margin = layout === 'window' ? 3 / Math.sqrt(seedDensity) : 0;
-  const region: Rect = { x0: field.x0 - margin, y0: field.y0 - margin, x1: field.x1 + margin, y1: field.y1 + margin };
-  const seeds = Math.max(3, Math.round(seedDensity * (region.x1 - region.x0) * (region.y1 - region.y0)));
+  const region: Rect = mask ? maskRegion(mask, layout, margin, field) : { x0: field.x0 - margin, y0: field.y0 - margin, x1: field.x1 + margin, y1: field.y1 + margin };
+  const seeds = Math.max(3, Math.round(seedDensity * (mask && layout === 'seeds' ? A : (region.x1 - region.x0) * (region.y1 - region.y0))));
   const G = Math.round(AREA_GRID_MAX / AREA_GRID_STEP) + 1;
   const areaGrid = new Float64Array(G);
   for (let k = 0; k < G; k++) areaGrid[k] = k * AREA_GRID_STEP;
+  if (mask && edgeRule === 'weight') warnings.push("In a tissue mask the edge rule is 'exclude': the Miles–Lantuéjoul weights are those of a rectangle.");
+  const radii = mask ? lRadii(cells, mask.bbox, A) : lRadii(cells, field);
   return {
-    cells, field: { x0: field.x0, y0: field.y0, x1: field.x1, y1: field.y1 }, replicates: R, seed, edgeRule, minArea, layout, density, seeds, region,
-    radii: lRadii(cells, field), areaGrid, warnings,
+    cells, field: { x0: field.x0, y0: field.y0, x1: field.x1, y1: field.y1 }, replicates: R, seed, edgeRule: mask ? 'exclude' : edgeRule, minArea, layout, density, seeds, region,
+    radii, areaGrid, mask, window: mask ? maskCovariance(mask, radii[radii.length - 1]!) : null, warnings,
   };
 }
 
@@ -272,7 +292,8 @@ export function drawReplicates(plan: ReferencePlan, r0: number, r1: number, onRe
   const RW = region.x1 - region.x0;
   const RH = region.y1 - region.y0;
   const seeds = plan.seeds;
-  const sqrtLambda = Math.sqrt(seeds / (RW * RH));
+  const mask = plan.mask;
+  const sqrtLambda = Math.sqrt(seeds / (mask && layout === 'seeds' ? mask.area : RW * RH));
   let areaLength = 0;
 
   // One engine and one seed array for all replicates: same seed count, so nothing is reallocated. The
@@ -284,17 +305,24 @@ export function drawReplicates(plan: ReferencePlan, r0: number, r1: number, onRe
     const r = r0 + j;
     const v = j * NSTAT;
     const rng = mulberry32(subSeed(plan.seed, r));
+    if (mask && layout === 'seeds') seedsInMask(mask, seeds, rng, pts);
     // Uniform seeds in the region, drawn x then y as synth/seeds uniformPoints draws them.
-    for (let i = 0; i < seeds; i++) {
-      pts[2 * i] = rng() * RW + region.x0;
-      pts[2 * i + 1] = rng() * RH + region.y0;
+    else {
+      for (let i = 0; i < seeds; i++) {
+        pts[2 * i] = rng() * RW + region.x0;
+        pts[2 * i + 1] = rng() * RH + region.y0;
+      }
     }
-    const t = layout === 'window' ? windowCellsRetained(engine.run(pts, region, 'retained'), engine, field) : engine.run(pts, field, 'cells');
+    const mc = mask ? maskReplicateCells(engine, pts, region, mask, layout) : null;
+    const t = mc ?? (layout === 'window' ? windowCellsRetained(engine.run(pts, region, 'retained'), engine, field) : engine.run(pts, field, 'cells'));
     const sample = cellSample(t.area, t.edge, t.bbox, field, edgeRule, minArea);
     const m = sample.index.length;
-    const sp = layout === 'seeds' ? pts : visibleCentroids(t.centroid, t.area, minArea);
-    const ce = layout === 'seeds' ? clarkEvans(sp, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }) : clarkEvans(sp, field);
-    l.set(lFunction(sp, field, radii), j * nr);
+    const sp = layout === 'seeds' ? pts : visibleCentroids(t.centroid, mc ? mc.seen : t.area, minArea);
+    // In a mask: its area and perimeter, and the points' rectangle its bounding box.
+    const shape = mask ? { area: mask.area, perimeter: mask.perimeter } : undefined;
+    const box = mask ? mask.bbox : field;
+    const ce = layout === 'seeds' ? clarkEvans(sp, box, { offsets: t.neighbourOffsets, index: t.neighbourIndex }, shape) : clarkEvans(sp, box, undefined, shape);
+    l.set(lFunction(sp, box, radii, plan.window ?? undefined), j * nr);
     areaOffsets[j + 1] = areaLength;
     let fig: PatternFigures = { sample, sides: null, areas: null, clarkEvans: ce, lewis: null, aboav: null, meanPerimeterScaled: Number.NaN };
     if (m > 0) {
@@ -418,7 +446,10 @@ export function combineReplicates(plan: ReferencePlan, batches: ReplicateBatch[]
     warnings.push(`Only ${mean.interiorCells.toFixed(1)} interior cells per replicate on average: the field is too small for a stable reference; use a larger field or more cells.`);
   }
   return {
-    options: { cells, field: { ...field }, replicates: R, seed, edgeRule, minCellAreaPx: minArea, layout, density },
+    options: {
+      cells, field: { ...field }, replicates: R, seed, edgeRule, minCellAreaPx: minArea, layout, density,
+      ...(plan.mask ? { mask: { area: plan.mask.area, perimeter: plan.mask.perimeter } } : {}),
+    },
     seedsPerReplicate: plan.seeds,
     values,
     mean,
@@ -436,47 +467,3 @@ export function combineReplicates(plan: ReferencePlan, batches: ReplicateBatch[]
     warnings,
   };
 }
-
-function concat(parts: Float64Array[], length: number): Float64Array {
-  const out = new Float64Array(length);
-  let o = 0;
-  for (const p of parts) (out.set(p, o), (o += p.length));
-  return out;
-}
-
-/** One replicate's class counts and count × class mean into row `offset` of w and v. */
-function classRow(law: { n: number[]; value: number[]; count: number[] }, w: Float64Array, v: Float64Array, offset: number): void {
-  for (let k = 0; k < law.n.length; k++) {
-    w[offset + law.n[k]!] = law.count[k]!;
-    v[offset + law.n[k]!] = law.count[k]! * law.value[k]!;
-  }
-}
-
-/** Centroids of the cells at least minArea large (the ones a segmentation would see). */
-function visibleCentroids(centroid: Float64Array, area: Float64Array, minArea: number): Float64Array {
-  if (!(minArea > 0)) return centroid;
-  let m = 0;
-  for (let i = 0; i < area.length; i++) if (area[i]! >= minArea) m++;
-  const out = new Float64Array(2 * m);
-  let k = 0;
-  for (let i = 0; i < area.length; i++) {
-    if (area[i]! < minArea) continue;
-    out[k++] = centroid[2 * i]!;
-    out[k++] = centroid[2 * i + 1]!;
-  }
-  return out;
-}
-
-function pooledClasses(w: Float64Array, v: Float64Array): { n: number[]; value: number[] } {
-  const n: number[] = [];
-  const value: number[] = [];
-  for (let k = 0; k <= MAX_SIDES; k++) {
-    if (w[k]! > 0) {
-      n.push(k);
-      value.push(v[k]! / w[k]!);
-    }
-  }
-  return { n, value };
-}
-
-

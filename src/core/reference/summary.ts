@@ -26,6 +26,8 @@ export interface ReferenceSummary {
   edgeRule: EdgeRule;
   minCellAreaPx: number;
   layout: ReferenceLayout;
+  /** The tissue mask the reference was drawn in (area px², perimeter px); absent when it was drawn in the field. */
+  mask?: { areaPx2: number; perimeterPx: number };
   densityPerPx2: number | null;
   seedsPerReplicate: number;
   interiorCellsTotal: number;
@@ -58,6 +60,7 @@ export function referenceSummary(ref: Reference, opts: { includeValues?: boolean
     edgeRule: ref.options.edgeRule,
     minCellAreaPx: ref.options.minCellAreaPx,
     layout: ref.options.layout,
+    ...(ref.options.mask ? { mask: { areaPx2: ref.options.mask.area, perimeterPx: round(ref.options.mask.perimeter)! } } : {}),
     densityPerPx2: round(ref.options.density),
     seedsPerReplicate: ref.seedsPerReplicate,
     interiorCellsTotal: ref.interiorCellsTotal,

@@ -20,8 +20,9 @@ export interface LargestGap {
  * past the border; only its centre is held to the field.
  *
  * @param t a tessellation of the points (its polygons are used)
+ * @param inside where a centre may lie (a tissue mask): the vertices outside are passed over
  */
-export function largestGap(t: Tessellation): LargestGap {
+export function largestGap(t: Tessellation, inside?: (x: number, y: number) => boolean): LargestGap {
   const n = t.area.length;
   let best = -1;
   let bx = Number.NaN;
@@ -34,7 +35,7 @@ export function largestGap(t: Tessellation): LargestGap {
       const x = t.polygonCoords[2 * v]!;
       const y = t.polygonCoords[2 * v + 1]!;
       const d2 = (x - px) * (x - px) + (y - py) * (y - py);
-      if (d2 > best) {
+      if (d2 > best && (!inside || inside(x, y))) {
         best = d2;
         bx = x;
         by = y;

@@ -7,8 +7,10 @@
 import type { EdgeRule } from '../settings';
 import type { Rect } from '../types';
 import { digamma, trigamma } from './dist';
-import { buildGrid, nearestNeighbourDistances } from './grid';
+import { nearestNeighbourDistances } from './grid';
 import { sortPositive } from './sort';
+
+export { lFunction, lRadii } from './lfunction';
 
 /** Side numbers are counted in bins 0..MAX_SIDES; the last bin holds every cell with MAX_SIDES sides or more. */
 export const MAX_SIDES = 20;
@@ -369,12 +371,13 @@ export interface ClarkEvans {
  * field perimeter. Uncorrected: r_e = 1/(2√λ), se = 0.26136/√(Nλ).
  * (Clark & Evans 1954, Ecology 35:445, pub, read in text; Donnelly 1978, "Simulations to determine the
  * variance and edge effect of total nearest-neighbour distance", in Hodder (ed.), Simulation Studies in
- * Archaeology, pub, memory.)
+ * Archaeology, pub, memory.) In a tissue mask (`window`): its area and perimeter for A and P, and the
+ * points' nearest neighbours among themselves (all of them lie in the mask; `field` is a rectangle holding them).
  */
-export function clarkEvans(points: Float64Array, field: Rect, graph?: { offsets: Int32Array; index: Int32Array }): ClarkEvans {
+export function clarkEvans(points: Float64Array, field: Rect, graph?: { offsets: Int32Array; index: Int32Array }, window?: { area: number; perimeter: number }): ClarkEvans {
   const n = points.length / 2;
-  const A = (field.x1 - field.x0) * (field.y1 - field.y0);
-  const P = 2 * (field.x1 - field.x0 + field.y1 - field.y0);
+  const A = window ? window.area : (field.x1 - field.x0) * (field.y1 - field.y0);
+  const P = window ? window.perimeter : 2 * (field.x1 - field.x0 + field.y1 - field.y0);
   if (n < 2) return { n, meanDistance: Number.NaN, R: Number.NaN, Rcorrected: Number.NaN, se: Number.NaN, z: Number.NaN };
   const d = graph ? graphNearestDistances(points, graph.offsets, graph.index) : nearestNeighbourDistances(points, field);
   let s = 0;
@@ -410,89 +413,4 @@ export function graphNearestDistances(points: Float64Array, offsets: Int32Array,
     out[i] = Math.sqrt(best);
   }
   return out;
-}
-
-/**
- * Centred L-function L(r) − r of a point pattern at the given radii, from Ripley's K with the translation
- * edge correction: K(r) = A/(n(n−1)) Σ_{i≠j} 1(d_ij ≤ r)·A/((W − |dx|)(H − |dy|)), L = √(K/π).
- * Positive values: more pairs at distance ≤ r than for Poisson points (clustering); negative: fewer
- * (regularity). (Ripley 1977, J. R. Stat. Soc. B 39:172; Besag 1977; Ohser 1983; pub, memory.)
- *
- * @param radii increasing radii (px), radii[k] = (k + 1)·Δ
- */
-export function lFunction(points: Float64Array, field: Rect, radii: Float64Array): Float64Array {
-  const n = points.length / 2;
-  const nr = radii.length;
-  const out = new Float64Array(nr);
-  if (n < 2 || nr === 0) return out.fill(Number.NaN);
-  const W = field.x1 - field.x0;
-  const H = field.y1 - field.y0;
-  const rmax = radii[nr - 1]!;
-  const dr = rmax / nr;
-  const bins = new Float64Array(nr);
-  const g = buildGrid(points, field, rmax);
-  const { gw, gh, start, order } = g;
-  // Coordinates in bucket order, so that the pair loops read memory in sequence.
-  const xs = new Float64Array(n);
-  const ys = new Float64Array(n);
-  for (let q = 0; q < n; q++) {
-    xs[q] = points[2 * order[q]!]!;
-    ys[q] = points[2 * order[q]! + 1]!;
-  }
-  const r2max = rmax * rmax;
-  const invDr = 1 / dr;
-  // The bucket side is at least rmax: pairs lie in this bucket, the next one, or the three below. In
-  // row-major bucket order this bucket and the next one are one run of memory, and so are the three
-  // below; pairs are visited in the same order as bucket by bucket, so the sums are the same.
-  for (let by = 0; by < gh; by++) {
-    for (let bx = 0; bx < gw; bx++) {
-      const b = by * gw + bx;
-      const end0 = start[bx + 1 < gw ? b + 2 : b + 1]!;
-      let lo1 = 0;
-      let hi1 = 0;
-      if (by + 1 < gh) {
-        const row = (by + 1) * gw;
-        lo1 = start[row + (bx > 0 ? bx - 1 : 0)]!;
-        hi1 = start[row + (bx + 1 < gw ? bx + 2 : bx + 1)]!;
-      }
-      const bEnd = start[b + 1]!;
-      for (let q = start[b]!; q < bEnd; q++) {
-        const x = xs[q]!;
-        const y = ys[q]!;
-        for (let run = 0; run < 2; run++) {
-          const uEnd = run === 0 ? end0 : hi1;
-          for (let u = run === 0 ? q + 1 : lo1; u < uEnd; u++) {
-            const dx = xs[u]! - x;
-            const dy = ys[u]! - y;
-            const d2 = dx * dx + dy * dy;
-            if (d2 > r2max) continue;
-            let k = Math.ceil(Math.sqrt(d2) * invDr) - 1;
-            if (k < 0) k = 0;
-            else if (k >= nr) k = nr - 1;
-            bins[k]! += 1 / ((W - Math.abs(dx)) * (H - Math.abs(dy)));
-          }
-        }
-      }
-    }
-  }
-  const A = W * H;
-  let cum = 0;
-  for (let k = 0; k < nr; k++) {
-    cum += bins[k]!;
-    const K = ((A * A) / (n * (n - 1))) * 2 * cum;
-    out[k] = Math.sqrt(K / Math.PI) - radii[k]!;
-  }
-  return out;
-}
-
-/** The radii of the L-function for a pattern of `cells` points in `field`: 25 steps up to min(2.5 spacings, a quarter of the shorter side). */
-export function lRadii(cells: number, field: Rect): Float64Array {
-  const W = field.x1 - field.x0;
-  const H = field.y1 - field.y0;
-  const spacing = Math.sqrt((W * H) / Math.max(1, cells));
-  const rmax = Math.min(2.5 * spacing, 0.25 * Math.min(W, H));
-  const nr = 25;
-  const r = new Float64Array(nr);
-  for (let k = 0; k < nr; k++) r[k] = ((k + 1) * rmax) / nr;
-  return r;
 }

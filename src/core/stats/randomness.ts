@@ -16,6 +16,11 @@ import { largestGap, type LargestGap } from './gap';
 import { assessQuality, type Quality } from './quality';
 import { stretchPoints, type Anisotropy } from './anisotropy';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
+import { combinedMaxZ, monteCarloP } from './mctest';
+import { hasPixel, type MaskGeometry } from '../mask/geometry';
+import { maskCovariance } from '../mask/covariance';
+
+export { combinedMaxZ, monteCarloP } from './mctest';
 import {
   MAX_SIDES, aboavWeaireLaw, areaStats, cellSample, type CellSample, clarkEvans, ksDistance, lFunction, lRadii, lewisLaw, sideStats, type LineFit,
 } from './pattern';
@@ -68,6 +73,11 @@ export interface RandomnessInput {
   notices?: string[];
   /** Anisotropy of the cells (walls): aligned elongated cells move the spacing statistics to a stretched frame. */
   anisotropy?: Anisotropy | null;
+  /**
+   * A tissue mask inside the field: the field of the statistics (edge flags given accordingly; densities,
+   * Clark–Evans and the L-function in the mask; the reference drawn in it; edge rule 'exclude').
+   */
+  mask?: MaskGeometry;
 }
 
 /** The minimum cell area (px²) the observation used: the segmentation's, else settings.minCellAreaPx for images, else 0. */
@@ -85,12 +95,12 @@ function referenceLayoutOf(settings: Settings): ReferenceLayout {
  * place they are worked out, for {@link randomness} and for a reference started ahead of it), or null
  * when the settings ask for no reference (replicates 0).
  */
-export function referenceOptionsFor(settings: Settings, cells: number, field: Rect, minCellAreaPx?: number): ReferenceOptions | null {
+export function referenceOptionsFor(settings: Settings, cells: number, field: Rect, minCellAreaPx?: number, mask?: MaskGeometry): ReferenceOptions | null {
   // Fewer cells than the verdict needs: a reference could not change the answer.
   if (settings.reference.replicates < 1 || cells < MIN_INTERIOR_CELLS) return null;
   return {
     cells, field, replicates: settings.reference.replicates, seed: settings.reference.seed, edgeRule: settings.edgeRule,
-    minCellAreaPx: observedMinArea(settings, minCellAreaPx), layout: referenceLayoutOf(settings),
+    minCellAreaPx: observedMinArea(settings, minCellAreaPx), layout: referenceLayoutOf(settings), ...(mask ? { mask } : {}),
   };
 }
 
@@ -168,28 +178,6 @@ const num = (v: number | undefined | null): number | null => (v !== undefined &&
 const list = (a: ArrayLike<number>): (number | null)[] => Array.from(a, (v) => num(v));
 const fitJson = (f: LineFit): JsonFit => ({ slope: num(f.slope), intercept: num(f.intercept), r2: num(f.r2) });
 
-/**
- * Monte Carlo p-value of an observed value t among finite replicate values: two-sided
- * min(1, 2·min(1 + #{T ≥ t}, 1 + #{T ≤ t})/(R + 1)), or upper-tail (1 + #{T ≥ t})/(R + 1).
- * (Barnard 1963; Besag & Diggle 1977, Appl. Stat. 26:327; pub, memory.)
- */
-export function monteCarloP(t: number, values: ArrayLike<number>, tail: 'two' | 'upper'): number | null {
-  if (!Number.isFinite(t)) return null;
-  let R = 0;
-  let ge = 0;
-  let le = 0;
-  for (let i = 0; i < values.length; i++) {
-    const v = values[i]!;
-    if (!Number.isFinite(v)) continue;
-    R++;
-    if (v >= t) ge++;
-    if (v <= t) le++;
-  }
-  if (!R) return null;
-  if (tail === 'upper') return (1 + ge) / (R + 1);
-  return Math.min(1, (2 * Math.min(1 + ge, 1 + le)) / (R + 1));
-}
-
 /** The field scaled by a stretch (the field itself without one). */
 function stretchedField(f: Rect, s: { sx: number; sy: number } | null): Rect {
   return s ? { x0: f.x0 * s.sx, y0: f.y0 * s.sy, x1: f.x1 * s.sx, y1: f.y1 * s.sy } : f;
@@ -211,83 +199,6 @@ export function readingOf(regular: 'low' | 'high' | null, value: number, referen
   if (!(p < alpha)) return 'within the random range';
   if (regular === null || !Number.isFinite(referenceMean)) return 'departs from random seeding';
   return (value < referenceMean) === (regular === 'low') ? 'more regular' : 'more irregular';
-}
-
-/**
- * Combined Monte Carlo test of several signed statistics. With the mean and sd of each statistic over all
- * R + 1 patterns (the observed one and the replicates, exchangeable under random seeding), each pattern j
- * gets standardised departures z_sj = (x_sj − mean_s)/sd_s and two summaries: the largest departure
- * max_s |z_sj| (a usual global-envelope form), and, when the statistics' "regular" directions are given,
- * their agreement A_j = Σ_s d_s·z_sj with d_s = ±1 pointing every statistic towards "regular", itself
- * standardised over the R + 1 patterns. T_j is the larger of the two, and the p-value is the observed T's
- * rank among the R + 1 values, #{T_j ≥ T_obs}/(R + 1). Being a symmetric function of the R + 1 patterns, T
- * keeps the test exactly at its nominal size whatever the dependence between the statistics; the agreement
- * gives it power when several statistics depart a little in the same direction, the maximum when one
- * departs a lot. (Besag & Diggle 1977, Appl. Stat. 26:327, for the Monte Carlo test; Myllymäki et al. 2017,
- * J. R. Stat. Soc. B 79:381, for global envelopes; pub, memory.)
- *
- * @param observed observed value of each statistic
- * @param replicates replicate values of each statistic (same length R each); replicates with any
- *   non-finite value are dropped
- * @param regularSign per statistic +1 when larger values read "regular", −1 when smaller do (omit for no agreement term)
- * @returns the combined p-value, the index of the statistic with the largest observed departure, each
- *   statistic's own two-sided rank p-value, and the observed agreement (positive: towards "regular") and
- *   whether it, rather than one statistic, carried the test
- */
-export function combinedMaxZ(
-  observed: number[], replicates: ArrayLike<number>[], regularSign?: number[],
-): { p: number; strongest: number; pEach: number[]; agreement: number | null; byAgreement: boolean } | null {
-  const S = observed.length;
-  if (!S) return null;
-  const R0 = replicates[0]!.length;
-  const keep: number[] = [];
-  for (let r = 0; r < R0; r++) if (replicates.every((v) => Number.isFinite(v[r]!))) keep.push(r);
-  const N = keep.length + 1;
-  if (N < 3) return null;
-  const T = new Float64Array(N);
-  const A = new Float64Array(N);
-  const zObs: number[] = [];
-  const pEach: number[] = [];
-  for (let s = 0; s < S; s++) {
-    const v = new Float64Array(N);
-    keep.forEach((r, j) => (v[j] = replicates[s]![r]!));
-    v[N - 1] = observed[s]!;
-    const [mean, sd] = meanAndSd(v);
-    for (let j = 0; j < N; j++) {
-      const z = (v[j]! - mean) / sd;
-      if (Math.abs(z) > T[j]!) T[j] = Math.abs(z);
-      if (regularSign) A[j]! += regularSign[s]! * z;
-    }
-    zObs.push(Math.abs(v[N - 1]! - mean) / sd);
-    pEach.push(monteCarloP(observed[s]!, v.subarray(0, N - 1), 'two')!);
-  }
-  let agreement: number | null = null;
-  let byAgreement = false;
-  if (regularSign && S > 1) {
-    const [mean, sd] = meanAndSd(A);
-    for (let j = 0; j < N; j++) {
-      const z = Math.abs(A[j]! - mean) / sd;
-      if (j === N - 1 && z > T[j]!) byAgreement = true;
-      if (z > T[j]!) T[j] = z;
-    }
-    agreement = (A[N - 1]! - mean) / sd;
-  }
-  let count = 0;
-  for (let j = 0; j < N; j++) if (T[j]! >= T[N - 1]!) count++;
-  let strongest = 0;
-  for (let s = 1; s < S; s++) if (zObs[s]! > zObs[strongest]!) strongest = s;
-  return { p: count / N, strongest, pEach, agreement, byAgreement };
-}
-
-/** Mean and sample sd (1 when the values do not vary) of a sample. */
-function meanAndSd(v: Float64Array): [number, number] {
-  const N = v.length;
-  let mean = 0;
-  for (let j = 0; j < N; j++) mean += v[j]!;
-  mean /= N;
-  let sd = 0;
-  for (let j = 0; j < N; j++) sd += (v[j]! - mean) ** 2;
-  return [mean, Math.sqrt(sd / (N - 1)) || 1];
 }
 
 const fmt = (v: number): string => (Math.abs(v) >= 100 ? v.toFixed(0) : Math.abs(v) >= 1 ? v.toFixed(3) : v.toPrecision(3));
@@ -323,7 +234,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const spacingPoints = stretch ? stretchPoints(t.points, stretch) : t.points;
   let ref: Reference | null = input.reference ?? null;
   if (!ref) {
-    const refOpts = referenceOptionsFor(settings, n, spacingField, input.minCellAreaPx);
+    const refOpts = referenceOptionsFor(settings, n, spacingField, input.minCellAreaPx, input.mask);
     if (!refOpts && n < MIN_INTERIOR_CELLS) {
       warnings.push(`No random-seeding reference was drawn: ${n} cell${n === 1 ? '' : 's'} cannot be compared with random seeding (the comparison needs at least ${MIN_INTERIOR_CELLS}).`);
     } else if (!refOpts) {
@@ -347,7 +258,8 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   }
 
   // Observed cells in the statistics.
-  const sample = cellSample(area, edge, bbox, field, settings.edgeRule, minArea);
+  const mask = input.mask ?? null;
+  const sample = cellSample(area, edge, bbox, field, mask ? 'exclude' : settings.edgeRule, minArea);
   const m = sample.index.length;
   const enough = m >= MIN_INTERIOR_CELLS;
   if (!enough) {
@@ -357,13 +269,16 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const as = m > 0 ? areaStats(area, sample) : null;
   // The tessellation is that of these very points, so its neighbour graph holds every nearest neighbour
   // (not so for stretched points: there the grid search finds them).
-  const ce = stretch ? clarkEvans(spacingPoints, spacingField) : clarkEvans(spacingPoints, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex });
+  const shape = mask ? { area: mask.area, perimeter: mask.perimeter } : undefined;
+  const ce = stretch ? clarkEvans(spacingPoints, spacingField) : clarkEvans(spacingPoints, field, { offsets: t.neighbourOffsets, index: t.neighbourIndex }, shape);
   if (spacingPoints.length / 2 < 2) warnings.push('Clark–Evans and the L-function need at least 2 points.');
-  const radii = ref ? ref.lRadii : lRadii(n, spacingField);
-  const L = lFunction(spacingPoints, spacingField, radii);
+  const radii = ref ? ref.lRadii : mask ? lRadii(n, mask.bbox, mask.area) : lRadii(n, spacingField);
+  const L = mask ? lFunction(spacingPoints, mask.bbox, radii, maskCovariance(mask, radii[radii.length - 1]!)) : lFunction(spacingPoints, spacingField, radii);
   const an = input.anisotropy ?? null;
   if (an?.spacing === 'stretched') {
     warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}, direction ${an.directionDeg!.toFixed(0)}°) and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function are computed with x scaled by ${stretch!.sx.toFixed(3)} and y by ${stretch!.sy.toFixed(3)}, which makes the mean cell round, against random seeding in the same stretched field.`);
+  } else if (an?.spacing === 'left out' && mask) {
+    warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}) and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function assume an isotropic pattern and, in a tissue mask, are not computed in a stretched frame; they are left out of the verdict.`);
   } else if (an?.spacing === 'left out') {
     warnings.push(`The cells are aligned (order ${an.orientationOrder!.toFixed(2)}) at ${an.directionDeg!.toFixed(0)}°, away from the image axes, and elongated (mean cell ${an.meanAspect!.toFixed(2)}:1): Clark–Evans and the L-function assume an isotropic pattern and are left out of the verdict. Rotate the image so that the cells lie along an axis to include them.`);
   }
@@ -459,7 +374,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
   const none = (len: number) => new Array<number | null>(len).fill(null);
   let gap: LargestGap | null = null;
   try {
-    gap = largestGap(t);
+    gap = largestGap(t, mask ? (x, y) => hasPixel(mask.pixels, Math.floor(x), Math.floor(y)) : undefined);
   } catch (e) {
     warnings.push(`The largest gap could not be found: ${describeError(e)}`);
   }
