@@ -16,7 +16,7 @@ import { openedFile, type Session } from '../session';
 import { forgetStored, storeBase, storedBase, storedImage, storedResult, storeImage, storeResult } from '../storage';
 import { analyseWithEdits } from './edits';
 
-export type AnalysisApi = Pick<WorkerApi, 'warmUp' | 'open' | 'analyze' | 'preview' | 'restore' | 'vectorLayers' | 'forget' | 'cancel'>;
+export type AnalysisApi = Pick<WorkerApi, 'warmUp' | 'open' | 'adopt' | 'analyze' | 'preview' | 'restore' | 'vectorLayers' | 'forget' | 'cancel'>;
 
 /** A finished analysis for the page: all but the label image (kept here), transferred, with its overlay. */
 async function sendResult(id: string, a: Analysis, t0: number): Promise<AnalysisResult> {
@@ -66,19 +66,41 @@ export function analysisFeature(s: Session): AnalysisApi {
       await pipeline(onProgress);
     },
 
-    async open(id, name, bytes, maxPixels) {
+    async open(id, name, bytes, maxPixels, stored) {
       let data = bytes;
       if (!data) {
         const rec = await storedImage(id);
         if (!rec) throw new MissingError(`${name}: the stored copy of this image is gone; add the file again.`);
         data = rec.bytes;
-      } else {
+      } else if (!stored) {
         await storeImage(id, name, data);
       }
       const { openFile } = await import('../../src/app/open');
       const o = await openFile(name, data, { maxPixels });
       s.opened.set(id, o);
       return openResult(id, o);
+    },
+
+    async adopt(id, packed, settings) {
+      const o = openedFile(s, id);
+      if (o.kind !== 'image') return null;
+      const t0 = performance.now();
+      const { snapshotMatches, unpackAnalysis } = await import('../../src/app/snapshot');
+      let p: ReturnType<typeof unpackAnalysis>;
+      try {
+        p = unpackAnalysis(packed);
+      } catch {
+        return null;
+      }
+      if (!(await snapshotMatches(p, o.name, o.image, o.umPerPxFromFile, settings))) return null;
+      const a = p.analysis;
+      s.current.set(id, a);
+      if (a.labels) s.bases.set(id, a.labels);
+      try {
+        return await sendResult(id, a, t0);
+      } finally {
+        setTimeout(() => void persist(s, id, a, a.labels), 0);
+      }
     },
 
     async analyze(req, onProgress) {
