@@ -248,7 +248,7 @@ describe('Tessellab web app', () => {
     // A click without dragging draws no line; the panel asks for one.
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
     await page.getByLabel('Bar length (µm)').fill('100');
-    await page.getByRole('button', { name: 'Set scale' }).click();
+    await page.getByRole('button', { name: 'Calibrate from a bar' }).click();
     await expect.poll(() => page.getByTestId('bar-error').textContent()).toMatch(/Draw a line|zero length/);
     await page.keyboard.press('Escape');
   });
