@@ -17,6 +17,7 @@ import type { Command } from '../main';
 import { parseArgs, parseSize, positiveNumber } from '../args';
 import { ensureOutDir, writeOut } from '../files';
 import { sharedReferencePool } from '../../node/referencePool';
+import { answerLine } from '../answer';
 
 const USAGE =
   'tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR] [--settings FILE.json] [--events FILE.csv] [--size WxH (points)]';
@@ -77,6 +78,7 @@ export const command: Command = {
         for (const f of imageFiles(analysis, name, outlines)) await writeOut(outDir, f.name, f.data);
         const s = analysis.summary;
         say(`done: ${s.cells.count} cells (${s.cells.interior} interior)`);
+        process.stdout.write(`${answerLine(name, s)}\n`);
         rows.push({ name, summary: analysis.summary });
       } catch (e) {
         failed++;
