@@ -97,7 +97,8 @@ describe('Tessellab web app', () => {
     const name = (await demo.jsonValue()) as string;
     const s = await settled(name);
     expect(s.status).toBe('done');
-    const shown = Number(await page.getByTestId('cell-count').textContent());
+    // The app opens on the Results card.
+    const shown = Number(await page.getByTestId('results-count').textContent());
     expect(shown).toBe(s.count);
     // sample-images/manifest.json: foam-random.png is a window on a random foam of about 600 cells (586 in its truth); the count must be near it.
     expect(shown).toBeGreaterThan(500);
