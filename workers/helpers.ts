@@ -4,6 +4,7 @@
  */
 import type { GreyImage, LabelImage } from '../src/core/types';
 import type { SettingsInput } from '../src/core/settings';
+import { LAYER_COLOURS, rgb } from '../src/core/export/palette';
 
 /**
  * An RGBA raster of a grey image for display, contrast-stretched between the 0.1 % and 99.9 % points of
@@ -36,8 +37,8 @@ export function displayRgba(img: GreyImage): Uint8ClampedArray {
   return out;
 }
 
-/** Outline colour: yellow of the Okabe–Ito palette (Okabe & Ito 2002, "Color Universal Design"), clear for colour-blind readers on grey. */
-export const OUTLINE_RGB: [number, number, number] = [240, 228, 66];
+/** Outline colour: the overlay palette's (src/core/export/palette.ts). */
+export const OUTLINE_RGB: [number, number, number] = rgb(LAYER_COLOURS.outlines.colour);
 
 /**
  * Cell outlines of a label image as RGBA: a pixel of cell v is on the outline when one of its 4-neighbours

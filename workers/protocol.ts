@@ -178,8 +178,17 @@ export interface WorkerApi {
   grain(id: string): Promise<GrainResult>;
   /** Loads opencv.js (lazily; the page calls it early so that it loads while the person looks around). */
   warmUp(onProgress?: ProgressFn): Promise<void>;
-  /** Decodes an image (bytes given, or the copy stored in IndexedDB) and keeps it for later calls. */
-  open(id: string, name: string, bytes: Uint8Array | null, maxPixels: number): Promise<OpenResult>;
+  /**
+   * Decodes an image (bytes given, or the copy stored in IndexedDB) and keeps it for later calls. Given
+   * bytes are stored first unless `stored` says the page has stored them already.
+   */
+  open(id: string, name: string, bytes: Uint8Array | null, maxPixels: number, stored?: boolean): Promise<OpenResult>;
+  /**
+   * Takes a result made ahead of time (packed, src/app/snapshot.ts) as the analysis of an opened image when
+   * it was made from the same image with the same settings, without loading the engine; null when it does
+   * not fit (then analyse).
+   */
+  adopt(id: string, packed: Uint8Array, settings: SettingsInput): Promise<AnalysisResult | null>;
   /** Analyses an opened image; the result is also stored in IndexedDB. */
   analyze(req: AnalyzeRequest, onProgress?: ProgressFn): Promise<AnalysisResult>;
   /** Segments a downscaled copy for the live preview. */

@@ -4,11 +4,9 @@
  */
 import type { Analysis } from '../src/core/analysis.types';
 import type { LabelImage } from '../src/core/types';
-import { openSessionDb } from '../src/storage/db';
+import { openSessionDb, saveImage } from '../src/storage/db';
 
-export async function storeImage(id: string, name: string, bytes: Uint8Array): Promise<void> {
-  await (await openSessionDb()).put('images', { id, name, bytes });
-}
+export const storeImage = saveImage;
 
 /** The stored copy of an image, or null when there is none. */
 export async function storedImage(id: string): Promise<{ name: string; bytes: Uint8Array } | null> {

@@ -13,6 +13,8 @@ export interface Command {
 
 const loaders: Record<string, () => Promise<Command>> = {
   analyze: async () => (await import('./commands/analyze')).command,
+  // The app's buttons say "Analyse": both spellings run the same command.
+  analyse: async () => (await import('./commands/analyze')).command,
   synth: async () => (await import('./commands/synth')).command,
   reference: async () => (await import('./commands/reference')).command,
   kinetics: async () => (await import('./commands/kinetics')).command,
@@ -24,8 +26,8 @@ function help(): string {
     'tessellab: measure cellular patterns in micrographs.',
     '',
     'Commands:',
-    '  tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR]',
-    '                   [--files-from LIST|-] [--shard I/N] [--skip-existing] [--threads N]',
+    '  tessellab analyze IMAGE... [--pattern walls|bodies|points] [--um-per-px X] [--out DIR]   (or: analyse)',
+    '                   [--files-from LIST|-] [--shard I/N] [--skip-existing] [--threads N] [--mask FILE.png]',
     '  tessellab merge DIR... --out FILE.csv',
     '  tessellab kinetics IMAGE... --times t1,t2,... [--out DIR]',
     '  tessellab synth --pattern walls|bodies --cells N --size WxH [--order random|regular|clustered] --seed S --out FILE',

@@ -14,7 +14,7 @@ export const DB_NAME = 'tessellab';
 export const DB_VERSION = 1;
 
 /** Where an entry stands. */
-export type EntryStatus = 'queued' | 'opening' | 'analysing' | 'done' | 'error';
+export type EntryStatus = 'queued' | 'opening' | 'analysing' | 'done' | 'error' | 'frame';
 
 /** The page's record of one image in the list. */
 export interface StoredEntry {
@@ -35,6 +35,8 @@ export interface StoredEntry {
   count: number | null;
   /** The cells are a kinetics series' final mosaic (kept as they are: never segmented again). */
   fromMosaic?: boolean;
+  /** A frame of a kinetics series, not analysed on its own. */
+  frame?: boolean;
 }
 
 /** Layers of the Bench. */
@@ -55,6 +57,29 @@ export interface StoredSession {
   panel: string;
   /** True once the demo has been added, so that removing it is respected after a reload. */
   demoAdded: boolean;
+  /** The Kinetics panel's choices, and whether a series had been run (it is run again after a reload). */
+  kinetics?: StoredKinetics;
+}
+
+/** The Kinetics panel's choices as stored with the session. */
+export interface StoredKinetics {
+  source: 'images' | 'pages';
+  chosen: string[];
+  pagesOf: string | null;
+  timesKind: 'list' | 'names' | 'csv';
+  timesText: string;
+  csvText: string;
+  csvName: string | null;
+  timeUnit: string;
+  manualThreshold: boolean;
+  threshold: number;
+  phase: 'auto' | 'bright' | 'dark';
+  fitMin: number;
+  fitMax: number;
+  incubation: boolean;
+  method: 'nonlinear' | 'avrami-plot';
+  allowDecreasing: boolean;
+  ran: boolean;
 }
 
 export interface TessellabDb extends DBSchema {
@@ -113,4 +138,13 @@ export async function loadSession(): Promise<StoredSession | null> {
 export async function saveSession(s: StoredSession): Promise<void> {
   const db = await openSessionDb();
   await db.put('session', s);
+}
+
+/**
+ * Stores an image's bytes (the page does it when the image is added, before anything else happens to it,
+ * so that a reload never finds an entry without its file; the worker when it is given bytes to open).
+ */
+export async function saveImage(id: string, name: string, bytes: Uint8Array): Promise<void> {
+  const db = await openSessionDb();
+  await db.put('images', { id, name, bytes });
 }

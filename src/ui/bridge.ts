@@ -136,10 +136,13 @@ export class Bridge {
     return this.call((api) => api.warmUp(cb ? Comlink.proxy((_s: string, f: number) => cb(f)) : undefined));
   }
 
-  /** Decodes an image in the worker (bytes are copied; null re-opens the stored copy). */
-  async open(id: string, name: string, bytes: Uint8Array | null, maxPixels: number): Promise<OpenResult> {
+  /**
+   * Decodes an image in the worker (bytes are copied; null re-opens the stored copy; `stored` says the
+   * page has stored the bytes already).
+   */
+  async open(id: string, name: string, bytes: Uint8Array | null, maxPixels: number, stored = false): Promise<OpenResult> {
     this.records.set(id, { name, maxPixels });
-    const r = await this.call((api) => api.open(id, name, bytes, maxPixels));
+    const r = await this.call((api) => api.open(id, name, bytes, maxPixels, stored));
     this.openIn.add(id);
     return r;
   }
@@ -203,6 +206,12 @@ export class Bridge {
     this.ensureOpen(id)
       .then(() => this.call((api) => api.preview(id, settings, maxSide)))
       .then(done, () => done(null));
+  }
+
+  /** A result made ahead of time, taken when it fits the opened image and the settings (else null). */
+  async adopt(id: string, packed: Uint8Array, settings: SettingsInput): Promise<AnalysisResult | null> {
+    await this.ensureOpen(id);
+    return this.call((api) => api.adopt(id, packed, settings));
   }
 
   /** The stored result of an earlier session (the image is opened from its stored copy first). */

@@ -96,24 +96,14 @@ describe('Tessellab web app', () => {
     const name = (await demo.jsonValue()) as string;
     const s = await settled(name);
     expect(s.status).toBe('done');
-    const shown = Number(await page.getByTestId('cell-count').textContent());
+    // The app opens on the Results card.
+    const shown = Number(await page.getByTestId('results-count').textContent());
     expect(shown).toBe(s.count);
     // sample-images/manifest.json: foam-random.png is a window on a random foam of about 600 cells (586 in its truth); the count must be near it.
     expect(shown).toBeGreaterThan(500);
     expect(shown).toBeLessThan(700);
     await expect.poll(() => page.getByText('Use your own').count()).toBeGreaterThan(0);
     await shot('01-demo');
-  });
-
-  it('the random-seeding reference is drawn with a web worker of its own beside the analysis worker', async () => {
-    // The demo's analysis drew a 199-replicate reference: its reference worker was started from the
-    // analysis worker, from this origin, and is alive. (That the figures do not depend on it is checked
-    // in Node: test/unit/reference/parallel.test.ts, test/integration/threads.test.ts.)
-    expect(requests.some((u) => u.startsWith(url) && /reference\.worker/.test(u))).toBe(true);
-    const w = page.workers().find((x) => /reference\.worker/.test(x.url()));
-    expect(w, 'a reference worker is running').toBeTruthy();
-    expect(await w!.evaluate(() => typeof (self as unknown as { onmessage: unknown }).onmessage)).toBe('function');
-    expect(pageErrors).toEqual([]);
   });
 
   it('an added image gives a table whose cell count equals the command line\'s, and the same files', async () => {
@@ -160,6 +150,17 @@ describe('Tessellab web app', () => {
     expect(summaryRows.length).toBe(3); // header + demo + fixture
     expect(summaryRows[2].split(',')[0]).toBe(fixture.name);
     await shot('03-export');
+  });
+
+  it('the random-seeding reference is drawn with a web worker of its own beside the analysis worker', async () => {
+    // The added image's analysis drew a 199-replicate reference (the demo's result was made at build time):
+    // its reference worker was started from the analysis worker, from this origin, and is alive. (That the figures do not depend on it is checked
+    // in Node: test/unit/reference/parallel.test.ts, test/integration/threads.test.ts.)
+    expect(requests.some((u) => u.startsWith(url) && /reference\.worker/.test(u))).toBe(true);
+    const w = page.workers().find((x) => /reference\.worker/.test(x.url()));
+    expect(w, 'a reference worker is running').toBeTruthy();
+    expect(await w!.evaluate(() => typeof (self as unknown as { onmessage: unknown }).onmessage)).toBe('function');
+    expect(pageErrors).toEqual([]);
   });
 
   it('merging two neighbours lowers the count by one; Ctrl+Z restores it; Ctrl+Shift+Z redoes it', async () => {
@@ -247,7 +248,7 @@ describe('Tessellab web app', () => {
     // A click without dragging draws no line; the panel asks for one.
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
     await page.getByLabel('Bar length (µm)').fill('100');
-    await page.getByRole('button', { name: 'Set scale' }).click();
+    await page.getByRole('button', { name: 'Calibrate from a bar' }).click();
     await expect.poll(() => page.getByTestId('bar-error').textContent()).toMatch(/Draw a line|zero length/);
     await page.keyboard.press('Escape');
   });

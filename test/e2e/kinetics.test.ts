@@ -8,7 +8,7 @@ import { describe, it, expect, beforeAll, afterAll, vi } from 'vitest';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Page, Route } from 'playwright-core';
 import type { PreviewServer } from 'vite';
 import { SCREENSHOTS, launch, serveApp } from './harness';
 import { main } from '../../src/cli/main';
@@ -93,16 +93,19 @@ afterAll(async () => {
 describe('Kinetics panel', () => {
   it('fits the series to the command line\'s n and k and writes its files', async () => {
     await page.waitForFunction(() => (globalThis as unknown as Win).__tessellab.entries.length > 0, null);
-    await page.getByTestId('file-input').setInputFiles(files);
-    await page.waitForFunction((n) => (globalThis as unknown as Win).__tessellab.entries.length >= n, files.length + 1);
     await page.getByRole('tab', { name: 'Kinetics' }).click();
+    // Frames are added as frames of the series: ticked, kept, and not analysed as images of their own.
+    await page.getByTestId('kinetics-add-frames').setInputFiles(files);
+    await page.waitForFunction((n) => (globalThis as unknown as Win).__tessellab.entries.length >= n, files.length + 1);
     const pick = page.getByTestId('kinetics-images');
-    for (const f of files) await pick.getByLabel(f.split('/').pop() as string).check();
+    for (const f of files) expect(await pick.getByLabel(new RegExp(f.split('/').pop() as string)).isChecked()).toBe(true);
     await page.getByTestId('kinetics-times').fill(times.join(', '));
     await page.getByTestId('kinetics-unit').fill('min');
     await page.getByTestId('kinetics-run').click();
     await page.waitForSelector('[data-testid=kinetics-n]');
     await page.waitForSelector('[data-testid=kinetics-plot-avrami] .main-svg');
+    const frameState = await page.evaluate((names) => (globalThis as unknown as Win).__tessellab.entries.filter((e) => names.includes(e.name)).map((e) => ({ status: e.status, count: e.count, error: e.error })), files.map((f) => f.split('/').pop() as string));
+    expect(frameState).toEqual(files.map(() => ({ status: 'frame', count: null, error: null })));
 
     const ref = JSON.parse(readFileSync(join(cliOut, 'kinetics.json'), 'utf8')) as { avrami: { n: number; k: number; method: string }; frames: unknown[] };
     const shownN = Number(await page.getByTestId('kinetics-n').textContent());
@@ -117,6 +120,10 @@ describe('Kinetics panel', () => {
     expect(ref.avrami.k / truth.k).toBeGreaterThan(0.5);
     expect(ref.avrami.k / truth.k).toBeLessThan(2);
     expect(await page.getByTestId('kinetics-filmstrip').locator('figure').count()).toBe(times.length);
+    // The fit's frames and the range of their fractions, as fitted: the nonlinear fit takes every frame.
+    const fr = (ref.frames as { fraction: number }[]).map((f) => f.fraction);
+    const fitted = (await page.getByTestId('kinetics-fitted').textContent()) as string;
+    expect(fitted).toContain(`all ${times.length} frames fitted (f from ${Math.min(...fr).toFixed(3)} to ${Math.max(...fr).toFixed(3)})`);
 
     const csv = await download('kinetics-export-kinetics.csv');
     expect(csv.name).toBe('kinetics.csv');
@@ -127,6 +134,28 @@ describe('Kinetics panel', () => {
     await page.screenshot({ path: join(SCREENSHOTS, '20-kinetics.png') });
     await page.getByTestId('kinetics-plot-fraction').scrollIntoViewIfNeeded();
     await page.screenshot({ path: join(SCREENSHOTS, '21-kinetics-plots.png') });
+  });
+
+  it('a reload keeps the panel\'s choices and its result, and a plot saved before the plots are drawn is saved once they are', async () => {
+    const before = await page.getByTestId('kinetics-n').textContent();
+    // The plotting library is held back until the PNG button has been pressed.
+    const held: Route[] = [];
+    await context.route('**/assets/plotly*.js', (r) => { held.push(r); });
+    await page.reload();
+    await page.waitForFunction(() => (globalThis as unknown as Win).__tessellab?.entries.length > 0, null);
+    await page.getByRole('tab', { name: 'Kinetics' }).click();
+    await expect.poll(() => page.getByTestId('kinetics-n').count()).toBe(1);
+    expect(await page.getByTestId('kinetics-n').textContent()).toBe(before);
+    const download = page.waitForEvent('download');
+    await page.getByTestId('kinetics-save-fraction-png').click();
+    for (const r of held.splice(0)) await r.continue();
+    await context.unroute('**/assets/plotly*.js');
+    const png = await download;
+    expect(png.suggestedFilename()).toBe('kinetics.fraction.png');
+    expect(readFileSync(await png.path()).subarray(1, 4).toString('latin1')).toBe('PNG');
+    expect(await page.getByTestId('kinetics-times').inputValue()).toBe(times.join(', '));
+    expect(await page.getByTestId('kinetics-unit').inputValue()).toBe('min');
+    expect(await page.evaluate(() => (globalThis as unknown as Win).__tessellab.entries.filter((e) => e.status === 'frame').length)).toBe(times.length);
   });
 
   it('times that do not increase show their message in the panel, and the earlier result stays', async () => {

@@ -7,6 +7,7 @@ import * as Comlink from 'comlink';
 import type { OpenedFile } from '../../src/app/open';
 import type { Analysis } from '../../src/core/analysis.types';
 import { MissingError } from '../../src/core/errors';
+import { LAYER_COLOURS, rgba } from '../../src/core/export/palette';
 import type { LabelImage } from '../../src/core/types';
 import { displayBitmap, bitmapOf, makeOverlay, thumbOf } from '../bitmaps';
 import { collectTransfers, downscaleGrey, outlineRgba, scaleSettings } from '../helpers';
@@ -16,7 +17,7 @@ import { openedFile, type Session } from '../session';
 import { forgetStored, storeBase, storedBase, storedImage, storedResult, storeImage, storeResult } from '../storage';
 import { analyseWithEdits } from './edits';
 
-export type AnalysisApi = Pick<WorkerApi, 'warmUp' | 'open' | 'analyze' | 'preview' | 'restore' | 'vectorLayers' | 'forget' | 'cancel'>;
+export type AnalysisApi = Pick<WorkerApi, 'warmUp' | 'open' | 'adopt' | 'analyze' | 'preview' | 'restore' | 'vectorLayers' | 'forget' | 'cancel'>;
 
 /** A finished analysis for the page: all but the label image (kept here), transferred, with its overlay. */
 async function sendResult(id: string, a: Analysis, t0: number): Promise<AnalysisResult> {
@@ -66,19 +67,41 @@ export function analysisFeature(s: Session): AnalysisApi {
       await pipeline(onProgress);
     },
 
-    async open(id, name, bytes, maxPixels) {
+    async open(id, name, bytes, maxPixels, stored) {
       let data = bytes;
       if (!data) {
         const rec = await storedImage(id);
         if (!rec) throw new MissingError(`${name}: the stored copy of this image is gone; add the file again.`);
         data = rec.bytes;
-      } else {
+      } else if (!stored) {
         await storeImage(id, name, data);
       }
       const { openFile } = await import('../../src/app/open');
       const o = await openFile(name, data, { maxPixels });
       s.opened.set(id, o);
       return openResult(id, o);
+    },
+
+    async adopt(id, packed, settings) {
+      const o = openedFile(s, id);
+      if (o.kind !== 'image') return null;
+      const t0 = performance.now();
+      const { snapshotMatches, unpackAnalysis } = await import('../../src/app/snapshot');
+      let p: ReturnType<typeof unpackAnalysis>;
+      try {
+        p = unpackAnalysis(packed);
+      } catch {
+        return null;
+      }
+      if (!(await snapshotMatches(p, o.name, o.image, o.umPerPxFromFile, settings))) return null;
+      const a = p.analysis;
+      s.current.set(id, a);
+      if (a.labels) s.bases.set(id, a.labels);
+      try {
+        return await sendResult(id, a, t0);
+      } finally {
+        setTimeout(() => void persist(s, id, a, a.labels), 0);
+      }
     },
 
     async analyze(req, onProgress) {
@@ -138,19 +161,19 @@ export function analysisFeature(s: Session): AnalysisApi {
       const ctx = c.getContext('2d');
       if (!ctx) return null;
       const { drawVoronoi, drawDelaunay, drawCentroids } = await exporters();
-      // The same colours and order as the Bench strokes them when zoomed in.
+      // The same colours (the one palette) and order as the Bench strokes them when zoomed in.
       ctx.setTransform(k, 0, 0, k, -f.x0 * k, -f.y0 * k);
       const closing = { x0: 0, y0: 0, moveTo(x: number, y: number) { this.x0 = x; this.y0 = y; ctx.moveTo(x, y); }, lineTo(x: number, y: number) { ctx.lineTo(x, y); }, closePath() { ctx.lineTo(this.x0, this.y0); } };
       ctx.lineWidth = req.lineWidth / k;
-      if (req.voronoi) { ctx.beginPath(); drawVoronoi(closing, t); ctx.strokeStyle = 'rgba(86, 180, 233, 0.95)'; ctx.stroke(); }
-      if (req.delaunay) { ctx.beginPath(); drawDelaunay(closing, t); ctx.strokeStyle = 'rgba(204, 121, 167, 0.95)'; ctx.stroke(); }
+      if (req.voronoi) { ctx.beginPath(); drawVoronoi(closing, t); ctx.strokeStyle = rgba(LAYER_COLOURS.voronoi.colour, 0.95); ctx.stroke(); }
+      if (req.delaunay) { ctx.beginPath(); drawDelaunay(closing, t); ctx.strokeStyle = rgba(LAYER_COLOURS.delaunay.colour, 0.95); ctx.stroke(); }
       if (req.centroids) {
         const n = t.points.length / 2;
         const spacing = Math.sqrt((fw * fh) / Math.max(1, n));
         ctx.beginPath();
         drawCentroids(closing, t.points, Math.max(1.5, spacing * 0.08));
         ctx.lineWidth = (req.lineWidth * 1.2) / k;
-        ctx.strokeStyle = 'rgba(213, 94, 0, 1)';
+        ctx.strokeStyle = LAYER_COLOURS.centroids.colour;
         ctx.stroke();
       }
       const b = c.transferToImageBitmap();

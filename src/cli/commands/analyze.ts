@@ -28,6 +28,7 @@ import { parseShard, planInputs, readList, shardOf, type Input, type Shard } fro
 import { allowedCpus } from '../../node/cpus';
 import { createNodeReferencePool } from '../../node/referencePool';
 import { softwareVersion } from '../../node/version';
+import { answerLine } from '../answer';
 
 const USAGE = [
   'tessellab analyze IMAGE... [--files-from LIST|-] [--shard I/N] [--skip-existing] [--threads N]',
@@ -139,6 +140,8 @@ async function runBatch(b: Batch): Promise<number> {
       await writeOut(outDir, `${input.name}.summary.json`, summary);
       const s = analysis.summary;
       say(`done: ${s.cells.count} cells (${s.cells.interior} interior)`);
+      // The answer, on standard output: cells, verdict, grain size.
+      process.stdout.write(`${answerLine(file, s)}\n`);
       rows.push(summaryTableRow(JSON.parse(summary)));
     } catch (e) {
       failed++;

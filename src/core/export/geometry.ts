@@ -8,6 +8,7 @@ import type { Polygons } from '../cv/contours';
 import { drawCentroids, drawPolygons, drawVoronoi, r2, SvgPath } from './path';
 import { formatNumber } from './csv';
 import { utf8OfPieces } from './utf8';
+import { LAYER_COLOURS, legendBox, legendSvg } from './palette';
 
 /**
  * cells.geojson: a FeatureCollection with, per cell, a Polygon feature (the segmented outline, or the
@@ -106,21 +107,29 @@ function* overlayPieces(analysis: Analysis, outlines: Polygons | null, style: Ov
     drawPolygons(p, outlines.offsets, outlines.coords);
     yield '<path id="outlines" d="';
     yield* p.pieces();
-    yield '" fill="none" stroke="#0072B2" stroke-width="1"/>\n';
+    yield `" fill="none" stroke="${LAYER_COLOURS.outlines.colour}" stroke-width="1"/>\n`;
   }
   if (s.voronoi) {
     const p = new SvgPath();
     drawVoronoi(p, analysis.tessellation);
     yield '<path id="voronoi" d="';
     yield* p.pieces();
-    yield '" fill="none" stroke="#E69F00" stroke-width="1" stroke-dasharray="3 2"/>\n';
+    yield `" fill="none" stroke="${LAYER_COLOURS.voronoi.colour}" stroke-width="1"/>\n`;
   }
   if (s.centroids) {
     const p = new SvgPath();
     drawCentroids(p, analysis.tessellation.points, 2);
     yield '<path id="centroids" d="';
     yield* p.pieces();
-    yield '" fill="none" stroke="#000000" stroke-width="1"/>\n';
+    yield `" fill="none" stroke="${LAYER_COLOURS.centroids.colour}" stroke-width="1"/>\n`;
+  }
+  // The legend of what is drawn, in the lower right corner (its own group: delete it to lay the overlay bare).
+  const shown = [s.outlines && outlines ? LAYER_COLOURS.outlines : null, s.voronoi ? LAYER_COLOURS.voronoi : null, s.centroids ? LAYER_COLOURS.centroids : null]
+    .filter((x): x is NonNullable<typeof x> => x !== null);
+  if (shown.length) {
+    const size = Math.max(8, Math.round(Math.min(w, h) / 60));
+    const box = legendBox(shown, size);
+    yield legendSvg(shown, Math.max(0, w - box.w - size), Math.max(0, h - box.h - size), size);
   }
   yield '</svg>\n';
 }

@@ -3,6 +3,7 @@
  * that prints cleanly to PDF from a browser. Pure: values in, text out.
  */
 import { formatG } from '../grain/formulas';
+import { GRAIN_COLOURS, LAYER_COLOURS, legendFigure } from './palette';
 import type { GBin, GrainSizeResult, TestFigure, TestPattern } from '../grain/types';
 
 export interface GrainReportInput {
@@ -99,12 +100,12 @@ th{background:#eee}
 .row{display:flex;gap:5mm;align-items:flex-start}
 .headline{font-size:13pt;font-weight:600;margin:1mm 0 2mm}
 .img{border:1px solid #999;background:#fff;flex:none}
-.fig{fill:none;stroke:#d00;stroke-width:1.2}
-.field{fill:none;stroke:#555;stroke-dasharray:4 3;stroke-width:0.8}
-.line{fill:none;stroke:#06c;stroke-width:0.6;opacity:0.8}
-.m1{fill:#d00}
-.m2{fill:none;stroke:#d00;stroke-width:0.9}
-.m4{fill:none;stroke:#f80;stroke-width:0.9}
+.fig{fill:none;stroke:${GRAIN_COLOURS.figure.colour};stroke-width:1.2}
+.field{fill:none;stroke:${LAYER_COLOURS.field.colour};stroke-dasharray:4 3;stroke-width:0.8}
+.line{fill:none;stroke:${GRAIN_COLOURS.lines.colour};stroke-width:0.6;opacity:0.8}
+.m1{fill:${GRAIN_COLOURS.whole.colour}}
+.m2{fill:none;stroke:${GRAIN_COLOURS.whole.colour};stroke-width:0.9}
+.m4{fill:none;stroke:${GRAIN_COLOURS.part.colour};stroke-width:0.9}
 .noimg{fill:#f4f4f4}
 .bar{fill:#446}
 .axis{stroke:#333;stroke-width:1}
@@ -169,7 +170,8 @@ ${imageSvg(input, 300, 220)}
 <tr><th>Image</th><td>${width} × ${height} px</td></tr>
 <tr><th>Field</th><td>${fw} × ${fh} px = ${num((fw * umPerPx) / 1000)} × ${num((fh * umPerPx) / 1000)} mm (${num(r.fieldAreaMm2)} mm²)</td></tr>
 </table>
-<p class="small">Marks: filled dot = grain counted whole, ring = half, orange ring = quarter (rectangle corner); red = test figure, blue = test lines, dashed = field.</p>
+<p class="small">Marks: filled dot = grain counted whole, ring = half, orange ring = quarter (rectangle corner).</p>
+${legendFigure([GRAIN_COLOURS.figure, GRAIN_COLOURS.lines, GRAIN_COLOURS.whole, GRAIN_COLOURS.part, LAYER_COLOURS.field], 10)}
 </div>
 </div>
 <h2>Results (ASTM E112 / E1382)</h2>

@@ -7,6 +7,7 @@ import { resolveSettings, type Settings, type SettingsInput } from '../../core/s
 import type { KineticsRun, KineticsTimes } from '../../../workers/protocol';
 import type { AppState } from './app.svelte';
 import { errorMessage } from '../bridge';
+import type { StoredKinetics } from '../../storage/db';
 
 export type SeriesSource = 'images' | 'pages';
 export type TimesKind = 'list' | 'names' | 'csv';
@@ -42,7 +43,60 @@ export class KineticsState {
   finalMessage = $state<string | null>(null);
   finalError = $state<string | null>(null);
 
+  /** The last series is being run again after a reload. */
+  restoring = $state(false);
+
   constructor(private readonly app: AppState) {}
+
+  /** The choices and whether a series was run, for the session store. */
+  toStored(): StoredKinetics {
+    return {
+      source: this.source, chosen: [...this.chosen], pagesOf: this.pagesOf, timesKind: this.timesKind, timesText: this.timesText,
+      csvText: this.csvText, csvName: this.csvName, timeUnit: this.timeUnit, manualThreshold: this.manualThreshold, threshold: this.threshold,
+      phase: this.phase, fitMin: this.fitMin, fitMax: this.fitMax, incubation: this.incubation, method: this.method,
+      allowDecreasing: this.allowDecreasing, ran: this.run !== null,
+    };
+  }
+
+  /** The choices of an earlier session (the images they name must be in the list). */
+  restore(k: StoredKinetics): void {
+    const have = new Set(this.app.entries.map((e) => e.id));
+    this.source = k.source;
+    this.chosen = k.chosen.filter((id) => have.has(id));
+    this.pagesOf = k.pagesOf && have.has(k.pagesOf) ? k.pagesOf : null;
+    this.timesKind = k.timesKind;
+    this.timesText = k.timesText;
+    this.csvText = k.csvText;
+    this.csvName = k.csvName;
+    this.timeUnit = k.timeUnit;
+    this.manualThreshold = k.manualThreshold;
+    this.threshold = k.threshold;
+    this.phase = k.phase;
+    this.fitMin = k.fitMin;
+    this.fitMax = k.fitMax;
+    this.incubation = k.incubation;
+    this.method = k.method;
+    this.allowDecreasing = k.allowDecreasing;
+  }
+
+  /** Runs the last series again after a reload (the same frames, times and settings give the same result). */
+  async rerun(): Promise<void> {
+    if (this.run || this.running || this.ids().length === 0) return;
+    this.restoring = true;
+    try {
+      await this.analyse();
+    } finally {
+      this.restoring = false;
+    }
+  }
+
+  /** Adds frames of the series from files: stored and opened for the series, not analysed on their own, and ticked. */
+  async addFrames(files: Iterable<File>): Promise<void> {
+    const added = await this.app.addFiles(files, true);
+    this.source = 'images';
+    this.chosen = [...new Set([...this.chosen, ...added.map((e) => e.id)])];
+    this.app.persistSession();
+  }
 
   /** The entries of the series, in order. */
   ids(): string[] {
@@ -104,6 +158,7 @@ export class KineticsState {
       this.finalMessage = null;
       this.finalError = null;
       if (!this.manualThreshold) this.threshold = r.result.phase.threshold;
+      this.app.persistSession();
     } catch (err) {
       this.error = errorMessage(err);
     } finally {
