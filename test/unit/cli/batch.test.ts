@@ -1,5 +1,5 @@
 /**
- * The command line in a batch (README "Batches"): inputs from a list file or standard input, shards that are
+ * The command line in a batch (docs/batches.md): inputs from a list file or standard input, shards that are
  * disjoint and together complete, --skip-existing keeping complete results and redoing the rest, inputs with
  * the same stem kept apart, a failed input recorded as a result, the same bytes whatever the number of
  * threads, and merge making summary.csv from the folders. Images from the project's generator.

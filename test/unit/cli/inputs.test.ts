@@ -1,7 +1,7 @@
 /**
  * The inputs of a batch (src/cli/inputs.ts): list files, the shard option, one sorted list without repeats,
  * distinct output names for inputs with the same stem, and shards that are disjoint and together complete.
- * Checked against the options' documented behaviour (README "Batches"); nothing here is a measurement.
+ * Checked against the options' documented behaviour (docs/batches.md); nothing here is a measurement.
  */
 import { Readable } from 'node:stream';
 import { describe, expect, it } from 'vitest';

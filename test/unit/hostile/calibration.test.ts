@@ -3,7 +3,7 @@
  * PhysicalSizeX="1e200") made areas overflow to infinity or underflow to zero, and the per-grain G
  * histogram then looped for ever. Every calibration is now checked against the plausible band of light and
  * electron microscopy, 1e-5 to 1e4 µm/px (src/core/image/calibration.ts; the band is a choice of ours, stated
- * in the README and docs/check-values.md), and every computed G must be finite.
+ * in docs/limits.md and docs/check-values.md), and every computed G must be finite.
  */
 import { describe, expect, it } from 'vitest';
 import { analyseFile } from '../../../src/app/analyse';
