@@ -19,19 +19,19 @@ export function displayRgba(img: GreyImage): Uint8ClampedArray {
   const n = data.length;
   const levels = img.bitDepth === 16 ? 65536 : 256;
   const hist = new Uint32Array(levels);
-  for (let i = 0; i < n; i++) hist[data[i]]++;
+  for (let i = 0; i < n; i++) hist[data[i]!]!++;
   const cut = Math.floor(n * 0.001);
   let lo = 0, hi = levels - 1, acc = 0;
-  for (; lo < levels - 1; lo++) { acc += hist[lo]; if (acc > cut) break; }
+  for (; lo < levels - 1; lo++) { acc += hist[lo]!; if (acc > cut) break; }
   acc = 0;
-  for (; hi > 0; hi--) { acc += hist[hi]; if (acc > cut) break; }
+  for (; hi > 0; hi--) { acc += hist[hi]!; if (acc > cut) break; }
   if (hi <= lo) { lo = 0; hi = levels - 1; }
   const lut = new Uint8ClampedArray(levels);
   const s = 255 / (hi - lo);
   for (let v = 0; v < levels; v++) lut[v] = Math.round((v - lo) * s);
   const out = new Uint8ClampedArray(n * 4);
   for (let i = 0, j = 0; i < n; i++, j += 4) {
-    const g = lut[data[i]];
+    const g = lut[data[i]!]!;
     out[j] = g; out[j + 1] = g; out[j + 2] = g; out[j + 3] = 255;
   }
   return out;
@@ -50,7 +50,7 @@ export function outlineRgba(l: LabelImage, rgb: [number, number, number] = OUTLI
   for (let y = 0; y < h; y++) {
     for (let x = 0; x < w; x++) {
       const i = y * w + x;
-      const v = labels[i];
+      const v = labels[i]!;
       if (v === 0) continue;
       const edge = x === 0 || y === 0 || x === w - 1 || y === h - 1
         || labels[i - 1] !== v || labels[i + 1] !== v || labels[i - w] !== v || labels[i + w] !== v;
@@ -69,13 +69,13 @@ export function cellBoxes(l: LabelImage): Int32Array {
   for (let c = 0; c < count; c++) { b[4 * c] = 2 ** 31 - 1; b[4 * c + 1] = 2 ** 31 - 1; b[4 * c + 2] = -1; b[4 * c + 3] = -1; }
   for (let y = 0, i = 0; y < h; y++) {
     for (let x = 0; x < w; x++, i++) {
-      const v = labels[i];
+      const v = labels[i]!;
       if (v === 0) continue;
       const k = 4 * (v - 1);
-      if (x < b[k]) b[k] = x;
-      if (y < b[k + 1]) b[k + 1] = y;
-      if (x + 1 > b[k + 2]) b[k + 2] = x + 1;
-      if (y + 1 > b[k + 3]) b[k + 3] = y + 1;
+      if (x < b[k]!) b[k] = x;
+      if (y < b[k + 1]!) b[k + 1] = y;
+      if (x + 1 > b[k + 2]!) b[k + 2] = x + 1;
+      if (y + 1 > b[k + 3]!) b[k + 3] = y + 1;
     }
   }
   return b;
@@ -90,12 +90,12 @@ export function downscaleGrey(img: GreyImage, f: number): GreyImage {
     const row = Math.floor(y / f) * w;
     for (let x = 0; x < img.width; x++) {
       const k = row + Math.floor(x / f);
-      sum[k] += img.data[y * img.width + x];
-      cnt[k]++;
+      sum[k]! += img.data[y * img.width + x]!;
+      cnt[k]!++;
     }
   }
   const data = img.bitDepth === 16 ? new Uint16Array(w * h) : new Uint8Array(w * h);
-  for (let k = 0; k < w * h; k++) data[k] = Math.round(sum[k] / cnt[k]);
+  for (let k = 0; k < w * h; k++) data[k] = Math.round(sum[k]! / cnt[k]!);
   return { width: w, height: h, data, bitDepth: img.bitDepth };
 }
 

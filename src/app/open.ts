@@ -69,8 +69,8 @@ export function pointsField(points: Float64Array): { width: number; height: numb
   let mx = 0;
   let my = 0;
   for (let i = 0; i < points.length; i += 2) {
-    mx = Math.max(mx, points[i]);
-    my = Math.max(my, points[i + 1]);
+    mx = Math.max(mx, points[i]!);
+    my = Math.max(my, points[i + 1]!);
   }
   return { width: Math.max(1, Math.ceil(mx)), height: Math.max(1, Math.ceil(my)) };
 }
@@ -93,7 +93,7 @@ export async function openFile(name: string, bytes: Uint8Array, opts: OpenOption
   }
   const { decodeImage } = await import('../core/image/decode');
   const d = await decodeImage(bytes, { name, maxPixels: opts.maxPixels });
-  const image = d.pages[0];
+  const image = d.pages[0]!;
   return {
     kind: 'image', name, image, pages: d.pages, width: image.width, height: image.height,
     umPerPxFromFile: d.umPerPx, wasColour: d.wasColour,

@@ -48,15 +48,15 @@ export function gatherSeries(files: readonly OpenedFile[], times: SeriesTimes): 
   let reordered = false;
   if (times.kind === 'names') {
     // Times read from the names fix the order too: a shell glob or a file picker sorts 't10' before 't9'.
-    const order = t.map((_, i) => i).sort((a, b) => t[a] - t[b]);
+    const order = t.map((_, i) => i).sort((a, b) => t[a]! - t[b]!);
     if (order.some((k, i) => k !== i)) {
       reordered = true;
       const [f, s] = [frames.slice(), sources.slice()];
       order.forEach((k, i) => {
-        frames[i] = f[k];
-        sources[i] = s[k];
+        frames[i] = f[k]!;
+        sources[i] = s[k]!;
       });
-      t = order.map((k) => t[k]);
+      t = order.map((k) => t[k]!);
     }
   }
   return { frames, sources, times: t, fileUmPerPx, reordered };

@@ -13,7 +13,7 @@ export function sortedRows(cols: Columns, n: number, key: string | null, descend
   if (!c) { if (descending) idx.reverse(); return idx; }
   const dir = descending ? -1 : 1;
   idx.sort((a, b) => {
-    const va = c[a], vb = c[b];
+    const va = c[a]!, vb = c[b]!;
     const na = Number.isNaN(va), nb = Number.isNaN(vb);
     if (na || nb) return na === nb ? a - b : na ? 1 : -1;
     return va === vb ? a - b : (va < vb ? -1 : 1) * dir;

@@ -26,7 +26,7 @@ async function pngDataUrl(img: import('../../src/core/types').GreyImage): Promis
   const { encodePng } = await import('../../src/core/image/encode');
   const rgba = displayRgba(img);
   const grey = new Uint8Array(img.width * img.height);
-  for (let i = 0; i < grey.length; i++) grey[i] = rgba[4 * i];
+  for (let i = 0; i < grey.length; i++) grey[i] = rgba[4 * i]!;
   const png = encodePng({ width: img.width, height: img.height, data: grey, channels: 1, bitDepth: 8 });
   let bin = '';
   for (let i = 0; i < png.length; i += 0x8000) bin += String.fromCharCode(...png.subarray(i, i + 0x8000));

@@ -35,12 +35,12 @@ export function kineticsFeature(s: Session): KineticsApi {
       });
       const { result, mosaic, settings } = run;
       const frames = series.frames;
-      s.lastSeries = { last: frames[frames.length - 1], mosaic, result, umPerPx: settings.umPerPx, minCellAreaPx: settings.minCellAreaPx };
+      s.lastSeries = { last: frames[frames.length - 1]!, mosaic, result, umPerPx: settings.umPerPx, minCellAreaPx: settings.minCellAreaPx };
       const thumbs: ImageBitmap[] = [];
       for (const f of frames) thumbs.push(await frameThumb(f));
       const enc = new TextEncoder();
       const out: ExportFile[] = seriesFiles(run).map((f) => ({ name: f.name, bytes: enc.encode(f.text), mime: f.mime }));
-      const r = { result, thumbs, files: out, width: frames[0].width, height: frames[0].height };
+      const r = { result, thumbs, files: out, width: frames[0]!.width, height: frames[0]!.height };
       return Comlink.transfer(r, [...thumbs, ...out.map((f) => f.bytes.buffer as ArrayBuffer)]);
     },
 

@@ -240,7 +240,7 @@ export function thresholdComponents(
     if (pick(brightCount) === 'dark') {
       // 1 − mask in place: the dark class.
       const m = mask.data as Uint8Array;
-      for (let i = 0; i < m.length; i++) m[i] ^= 1;
+      for (let i = 0; i < m.length; i++) m[i]! ^= 1;
     }
     const fg = erodePx > 0 ? erodeMat(cv, track, mask, erodePx) : mask;
     // The source is not needed again: its heap is reused by the label Mat.

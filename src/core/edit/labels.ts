@@ -27,11 +27,11 @@ function checkCell(labels: LabelImage, cell: number, what: string): void {
  */
 function compact(lab: Int32Array, maxLabel: number): number {
   const present = new Uint8Array(maxLabel + 1);
-  for (let i = 0; i < lab.length; i++) present[lab[i]] = 1;
+  for (let i = 0; i < lab.length; i++) present[lab[i]!] = 1;
   const map = new Int32Array(maxLabel + 1);
   let k = 0;
   for (let v = 1; v <= maxLabel; v++) if (present[v]) map[v] = ++k;
-  for (let i = 0; i < lab.length; i++) lab[i] = map[lab[i]];
+  for (let i = 0; i < lab.length; i++) lab[i] = map[lab[i]!]!;
   return k;
 }
 
@@ -45,7 +45,7 @@ export function removeCell(labels: LabelImage, cell: number): LabelImage {
   checkCell(labels, cell, 'Cell');
   const out = new Int32Array(labels.labels);
   for (let i = 0; i < out.length; i++) {
-    const v = out[i];
+    const v = out[i]!;
     if (v === cell) out[i] = 0;
     else if (v > cell) out[i] = v - 1;
   }
@@ -104,7 +104,7 @@ export function mergeCells(labels: LabelImage, a: number, b: number): LabelImage
       if (dA <= r && dB <= r && Math.max(dA, dB) < dO) out[i] = keep;
     }
   }
-  for (let i = 0; i < out.length; i++) if (out[i] > drop) out[i] -= 1;
+  for (let i = 0; i < out.length; i++) if (out[i]! > drop) out[i]! -= 1;
   return { width: w, height: h, labels: out, count: labels.count - 1 };
 }
 
@@ -178,7 +178,7 @@ export function splitCell(labels: LabelImage, cell: number, x0: number, y0: numb
     stack.push(i);
     while (stack.length) {
       const j = stack.pop() as number;
-      sizes[id]++;
+      sizes[id]!++;
       const jx = j % w, jy = (j - jx) / w;
       for (let dy = -1; dy <= 1; dy++) {
         const yy = jy + dy;
@@ -200,11 +200,11 @@ export function splitCell(labels: LabelImage, cell: number, x0: number, y0: numb
     throw new EditError(`The line does not cut cell ${cell} in two; draw it across the whole cell, from wall to wall.`);
   }
   let largest = 1;
-  for (let p = 2; p <= nPieces; p++) if (sizes[p] > sizes[largest]) largest = p;
+  for (let p = 2; p <= nPieces; p++) if (sizes[p]! > sizes[largest]!) largest = p;
   const newId = new Int32Array(nPieces + 1);
   let next = labels.count;
   for (let p = 1; p <= nPieces; p++) newId[p] = p === largest ? cell : ++next;
-  for (let i = 0; i < out.length; i++) if (piece[i] !== 0) out[i] = newId[piece[i]];
+  for (let i = 0; i < out.length; i++) if (piece[i] !== 0) out[i] = newId[piece[i]!]!;
   const count = compact(out, next);
   return { width: w, height: h, labels: out, count };
 }

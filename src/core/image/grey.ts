@@ -41,10 +41,10 @@ export function toGrey(img: InterleavedImage): GreyImage {
   if (channels === 1) return { width, height, data, bitDepth };
   const out = bitDepth === 16 ? new Uint16Array(n) : new Uint8Array(n);
   if (channels === 2) {
-    for (let i = 0; i < n; i++) out[i] = data[2 * i];
+    for (let i = 0; i < n; i++) out[i] = data[2 * i]!;
   } else {
     for (let i = 0, j = 0; i < n; i++, j += channels) {
-      out[i] = Math.round(LUMA_R * data[j] + LUMA_G * data[j + 1] + LUMA_B * data[j + 2]);
+      out[i] = Math.round(LUMA_R * data[j]! + LUMA_G * data[j + 1]! + LUMA_B * data[j + 2]!);
     }
   }
   return { width, height, data: out, bitDepth };
@@ -67,13 +67,13 @@ export function greyTo8(img: GreyImage): Uint8Array {
   let min = 65535;
   let max = 0;
   for (let i = 0; i < n; i++) {
-    const v = data[i];
+    const v = data[i]!;
     if (v < min) min = v;
     if (v > max) max = v;
   }
   const out = new Uint8Array(n);
   if (max === min) return out;
   const scale = 255 / (max - min);
-  for (let i = 0; i < n; i++) out[i] = Math.round((data[i] - min) * scale);
+  for (let i = 0; i < n; i++) out[i] = Math.round((data[i]! - min) * scale);
   return out;
 }

@@ -51,19 +51,19 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
     if (bytes[at] !== 0xff) {
       throw new ImageDecodeError(`${p}the JPEG file is damaged (a marker is missing at byte ${at}); re-save it`);
     }
-    const marker = bytes[at + 1];
+    const marker = bytes[at + 1]!;
     if (marker === 0xd9) break;
     if (marker === 0x01 || (marker >= 0xd0 && marker <= 0xd7)) { at += 2; continue; }
     if (at + 4 > bytes.length) throw truncated();
-    const length = (bytes[at + 2] << 8) | bytes[at + 3];
+    const length = (bytes[at + 2]! << 8) | bytes[at + 3]!;
     if (at + 2 + length > bytes.length) throw truncated();
     if (isStartOfFrame(marker) && header === null) {
       if (length < 8) throw new ImageDecodeError(`${p}the JPEG file is damaged (short frame header); re-save it`);
       header = {
-        precision: bytes[at + 4],
-        height: (bytes[at + 5] << 8) | bytes[at + 6],
-        width: (bytes[at + 7] << 8) | bytes[at + 8],
-        components: bytes[at + 9],
+        precision: bytes[at + 4]!,
+        height: (bytes[at + 5]! << 8) | bytes[at + 6]!,
+        width: (bytes[at + 7]! << 8) | bytes[at + 8]!,
+        components: bytes[at + 9]!,
         sof: marker,
         scanBytes: 0,
       };
@@ -74,7 +74,7 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
       const scanStart = at;
       while (at + 1 < bytes.length) {
         if (bytes[at] === 0xff) {
-          const next = bytes[at + 1];
+          const next = bytes[at + 1]!;
           if (next !== 0x00 && !(next >= 0xd0 && next <= 0xd7) && next !== 0xff) break;
         }
         at++;
@@ -143,7 +143,7 @@ export function decodeJpegRaster(bytes: Uint8Array, maxPixels: number, name?: st
   if (header.components === 1) {
     // jpeg-js replicates a grey component into R, G and B; keep one.
     const grey = new Uint8Array(width * height);
-    for (let i = 0; i < grey.length; i++) grey[i] = data[3 * i];
+    for (let i = 0; i < grey.length; i++) grey[i] = data[3 * i]!;
     return { image: { width, height, data: grey, channels: 1, bitDepth: 8 }, colour: false };
   }
   return { image: { width, height, data, channels: 3, bitDepth: 8 }, colour: true };

@@ -20,7 +20,7 @@ function decodeXmlEntities(s: string): string {
 function attribute(tag: string, attr: string): string | null {
   const m = new RegExp(`\\s${attr}\\s*=\\s*(?:"([^"]*)"|'([^']*)')`).exec(tag);
   if (!m) return null;
-  return decodeXmlEntities((m[1] ?? m[2]).trim());
+  return decodeXmlEntities((m[1] ?? m[2]!).trim());
 }
 
 /** The physical pixel size an OME-XML document gives, in µm, for x and y (null where absent or unreadable). */

@@ -27,7 +27,7 @@ export interface PngRaster {
 }
 
 const textAscii = (b: Uint8Array, at: number) =>
-  String.fromCharCode(b[at], b[at + 1], b[at + 2], b[at + 3]);
+  String.fromCharCode(b[at]!, b[at + 1]!, b[at + 2]!, b[at + 3]!);
 
 /**
  * Reads the IHDR chunk and walks the chunk list up to IEND without inflating anything, so size limits and
@@ -51,9 +51,9 @@ export function readPngHeader(bytes: Uint8Array, name?: string): PngHeader {
   const header: PngHeader = {
     width: view.getUint32(16),
     height: view.getUint32(20),
-    bitDepth: bytes[24],
-    colorType: bytes[25],
-    interlace: bytes[28],
+    bitDepth: bytes[24]!,
+    colorType: bytes[25]!,
+    interlace: bytes[28]!,
   };
   let at = 8;
   for (;;) {
@@ -155,7 +155,7 @@ function unpackLowDepthGrey(png: DecodedPng): Uint8Array {
   for (let y = 0; y < height; y++) {
     for (let x = 0; x < width; x++) {
       const bit = x * depth;
-      const byte = packed[y * bytesPerRow + (bit >> 3)];
+      const byte = packed[y * bytesPerRow + (bit >> 3)]!;
       const v = (byte >> (8 - depth - (bit & 7))) & mask;
       out[y * width + x] = Math.round((v * 255) / maxValue);
     }
@@ -197,7 +197,7 @@ export function decodePngRaster(bytes: Uint8Array, maxPixels: number, name?: str
         `${p}the PNG's palette (${palette.length} colour${palette.length === 1 ? '' : 's'}) does not cover the colour numbers its pixels use; the file is damaged: re-save it`,
       );
     }
-    const channels = palette[0].length as 3 | 4;
+    const channels = palette[0]!.length as 3 | 4;
     const colour = palette.some((c) => c[0] !== c[1] || c[1] !== c[2]);
     return { image: { width, height, data: rgb, channels, bitDepth: 8 }, colour, umPerPx };
   }

@@ -16,7 +16,7 @@ function startsWith(bytes: Uint8Array, sig: readonly number[], at = 0): boolean 
 const OTHER_FORMATS: { name: string; test: (b: Uint8Array) => boolean }[] = [
   { name: 'GIF', test: (b) => startsWith(b, [0x47, 0x49, 0x46, 0x38]) },
   // 'BM' alone is too common at the start of text; the DIB header size at byte 14 must be a known one too.
-  { name: 'BMP', test: (b) => startsWith(b, [0x42, 0x4d]) && b.length >= 18 && [12, 40, 52, 56, 64, 108, 124].includes(b[14] | (b[15] << 8) | (b[16] << 16) | (b[17] << 24)) },
+  { name: 'BMP', test: (b) => startsWith(b, [0x42, 0x4d]) && b.length >= 18 && [12, 40, 52, 56, 64, 108, 124].includes(b[14]! | (b[15]! << 8) | (b[16]! << 16) | (b[17]! << 24)) },
   { name: 'WebP', test: (b) => startsWith(b, [0x52, 0x49, 0x46, 0x46]) && startsWith(b, [0x57, 0x45, 0x42, 0x50], 8) },
   { name: 'JPEG 2000', test: (b) => startsWith(b, [0x00, 0x00, 0x00, 0x0c, 0x6a, 0x50, 0x20, 0x20]) || startsWith(b, [0xff, 0x4f, 0xff, 0x51]) },
   { name: 'HEIF/AVIF', test: (b) => startsWith(b, [0x66, 0x74, 0x79, 0x70], 4) },
@@ -31,7 +31,7 @@ const OTHER_FORMATS: { name: string; test: (b: Uint8Array) => boolean }[] = [
 function looksLikeText(bytes: Uint8Array): boolean {
   const head = bytes.subarray(0, 1024);
   for (let i = 0; i < head.length; i++) {
-    const c = head[i];
+    const c = head[i]!;
     if (c < 0x20 && c !== 0x09 && c !== 0x0a && c !== 0x0d && c !== 0x0c) return false;
     if (c === 0x7f) return false;
   }

@@ -59,8 +59,8 @@ function list(v: TagValue): number[] {
 /** A RATIONAL tag as geotiff returns it ([numerator, denominator]) to a number, or null. */
 function rational(v: TagValue): number | null {
   const a = list(v);
-  if (a.length === 1) return a[0];
-  if (a.length >= 2 && a[1] !== 0) return a[0] / a[1];
+  if (a.length === 1) return a[0]!;
+  if (a.length >= 2 && a[1] !== 0) return a[0]! / a[1]!;
   return null;
 }
 
@@ -139,10 +139,10 @@ async function inspectPage(image: GeoTIFFImage, bytes: Uint8Array, index: number
   }
   let stored = 0;
   for (let i = 0; i < offsets.length; i++) {
-    if (offsets[i] + counts[i] > bytes.length) {
+    if (offsets[i]! + counts[i]! > bytes.length) {
       throw new ImageDecodeError(`${p}the TIFF file is truncated (its image data ends after the file does)${page}; copy or export it again`);
     }
-    stored += counts[i];
+    stored += counts[i]!;
   }
   // The page's raster is allocated before its strips are decoded: a few stored bytes must not promise
   // 100 megapixels. No compression read here expands more than MAX_EXPANSION says.
@@ -179,7 +179,7 @@ async function readPage(info: PageInfo, name?: string, index = 0): Promise<{ ras
   if (photometric === 0) {
     // WhiteIsZero: 0 is white, so invert to the usual black-is-zero.
     const max = bits === 16 ? 65535 : 255;
-    for (let i = 0; i < data.length; i++) data[i] = max - data[i];
+    for (let i = 0; i < data.length; i++) data[i] = max - data[i]!;
   }
   if (photometric === 3) {
     const map = list(await tag(image, 'ColorMap'));
@@ -191,8 +191,8 @@ async function readPage(info: PageInfo, name?: string, index = 0): Promise<{ ras
     const rgb = new Uint8Array(width * height * 3);
     let colour = false;
     for (let i = 0; i < data.length; i++) {
-      const k = data[i];
-      const r = Math.round(map[k] / 257), g = Math.round(map[n + k] / 257), b = Math.round(map[2 * n + k] / 257);
+      const k = data[i]!;
+      const r = Math.round(map[k]! / 257), g = Math.round(map[n + k]! / 257), b = Math.round(map[2 * n + k]! / 257);
       rgb[3 * i] = r; rgb[3 * i + 1] = g; rgb[3 * i + 2] = b;
       if (r !== g || g !== b) colour = true;
     }
@@ -277,12 +277,12 @@ export async function decodeTiffRaster(bytes: Uint8Array, maxPixels: number, nam
   const pages: InterleavedImage[] = [];
   let colour = false;
   for (let i = 0; i < infos.length; i++) {
-    const { raster, colour: c } = await readPage(infos[i], name, i);
+    const { raster, colour: c } = await readPage(infos[i]!, name, i);
     pages.push(raster);
     colour ||= c;
   }
 
-  return { pages, colour, ...(await pixelSize(infos[0].image)) };
+  return { pages, colour, ...(await pixelSize(infos[0]!.image)) };
 }
 
 /**

@@ -299,6 +299,6 @@ function fillHoles(cv: CV, labels: Int32Array | null, mask: Uint8Array, w: numbe
     const hole = cc.labels[i]!;
     if (hole === 0 || outer[hole]) continue;
     if (!labels) mask[i] = 1;
-    else if (owner[hole] > 0) (labels[i] = owner[hole]!), (mask[i] = 1);
+    else if (owner[hole]! > 0) (labels[i] = owner[hole]!), (mask[i] = 1);
   }
 }

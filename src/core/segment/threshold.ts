@@ -75,7 +75,7 @@ export function hysteresis(cv: CV, prepared: Uint8Array, body: Uint8Array, width
   const dim = new Uint8Array(prepared.length);
   for (let i = 0; i < prepared.length; i++) dim[i] = !body[i] && (bodyBright ? prepared[i]! > low : prepared[i]! < low) ? 1 : 0;
   const weak = openMask(cv, dim, width, height, 1);
-  for (let i = 0; i < weak.length; i++) weak[i] |= body[i]!;
+  for (let i = 0; i < weak.length; i++) weak[i]! |= body[i]!;
   const cc = connectedComponents(cv, weak, width, height, 8);
   const keep = new Uint8Array(cc.count + 1);
   for (let i = 0; i < body.length; i++) if (body[i]) keep[cc.labels[i]!] = 1;

@@ -131,7 +131,7 @@ function drawCells(ctx: CanvasRenderingContext2D, f: BenchFrame, analysis: PageA
   for (const cell of f.selectedCells) {
     if (runs && result) {
       const b = result.overlay.cellBoxes;
-      forEachSpan(runs, cell, b[4 * (cell - 1) + 1], b[4 * (cell - 1) + 3], (x0, x1, y) => ctx.fillRect(x0 + field.x0, y + field.y0, x1 - x0, 1));
+      forEachSpan(runs, cell, b[4 * (cell - 1) + 1]!, b[4 * (cell - 1) + 3]!, (x0, x1, y) => ctx.fillRect(x0 + field.x0, y + field.y0, x1 - x0, 1));
     } else {
       const p = new Path2D();
       drawVoronoi(new LineClosingSink(p), analysis.tessellation, [cell - 1]);
@@ -175,7 +175,7 @@ function drawCells(ctx: CanvasRenderingContext2D, f: BenchFrame, analysis: PageA
     ctx.strokeStyle = 'rgba(0,0,0,0.8)';
     ctx.fillStyle = '#ffffff';
     for (let i = 0; i < pts.length / 2; i++) {
-      const x = pts[2 * i], y = pts[2 * i + 1];
+      const x = pts[2 * i]!, y = pts[2 * i + 1]!;
       if (x < x0 || y < y0 || x > x1 || y > y1) continue;
       ctx.strokeText(String(i + 1), x, y);
       ctx.fillText(String(i + 1), x, y);

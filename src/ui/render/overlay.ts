@@ -63,9 +63,9 @@ export function largestGap(t: Tessellation): { x: number; y: number; r: number; 
   let best: { x: number; y: number; r: number; cell: number } | null = null;
   const n = cellCount(t);
   for (let i = 0; i < n; i++) {
-    const sx = t.points[2 * i], sy = t.points[2 * i + 1];
-    for (let k = t.polygonOffsets[i]; k < t.polygonOffsets[i + 1]; k++) {
-      const x = t.polygonCoords[2 * k], y = t.polygonCoords[2 * k + 1];
+    const sx = t.points[2 * i]!, sy = t.points[2 * i + 1]!;
+    for (let k = t.polygonOffsets[i]!; k < t.polygonOffsets[i + 1]!; k++) {
+      const x = t.polygonCoords[2 * k]!, y = t.polygonCoords[2 * k + 1]!;
       const r = Math.hypot(x - sx, y - sy);
       if (!best || r > best.r) best = { x, y, r, cell: i + 1 };
     }
@@ -77,7 +77,7 @@ export function largestGap(t: Tessellation): { x: number; y: number; r: number; 
 export function nearestCentroid(points: Float64Array, x: number, y: number): number {
   let best = -1, bd = Infinity;
   for (let i = 0; i < points.length; i += 2) {
-    const d = (points[i] - x) ** 2 + (points[i + 1] - y) ** 2;
+    const d = (points[i]! - x) ** 2 + (points[i + 1]! - y) ** 2;
     if (d < bd) { bd = d; best = i / 2; }
   }
   return best;
@@ -163,12 +163,12 @@ export function drawDelaunayRange(sink: PathSink, t: Tessellation, from: number,
   const n = p.length / 2;
   for (let i = 3 * from; i < 3 * to && i < tri.length; i += 3) {
     for (let k = 0; k < 3; k++) {
-      const a = tri[i + k], b = tri[i + ((k + 1) % 3)];
+      const a = tri[i + k]!, b = tri[i + ((k + 1) % 3)]!;
       const key = a < b ? a * n + b : b * n + a;
       if (done.has(key)) continue;
       done.add(key);
-      sink.moveTo(p[2 * a], p[2 * a + 1]);
-      sink.lineTo(p[2 * b], p[2 * b + 1]);
+      sink.moveTo(p[2 * a]!, p[2 * a + 1]!);
+      sink.lineTo(p[2 * b]!, p[2 * b + 1]!);
     }
   }
 }

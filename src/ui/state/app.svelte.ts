@@ -156,7 +156,7 @@ export class AppState {
     this.entries.push(e);
     this.save(e);
     this.persistSession();
-    return this.entries[this.entries.length - 1];
+    return this.entries[this.entries.length - 1]!;
   }
 
   /** Analyses a frame of a series as an image of its own. */
@@ -191,7 +191,7 @@ export class AppState {
     this.request(e, 'segment');
     this.save(e);
     this.persistSession();
-    return this.entries[this.entries.length - 1];
+    return this.entries[this.entries.length - 1]!;
   }
 
   /** A fresh entry id (for an entry whose labels the worker prepares before it is added). */
@@ -211,7 +211,7 @@ export class AppState {
     this.request(e, 'measure');
     this.save(e);
     this.persistSession();
-    return this.entries[this.entries.length - 1];
+    return this.entries[this.entries.length - 1]!;
   }
 
   select(id: string): void {
@@ -240,7 +240,7 @@ export class AppState {
   async removeEntry(id: string): Promise<void> {
     const i = this.entries.findIndex((e) => e.id === id);
     if (i < 0) return;
-    const [e] = this.entries.splice(i, 1);
+    const e = this.entries.splice(i, 1)[0]!;
     this.queue.drop(id);
     e.bitmap?.close();
     if (this.selectedId === id) this.selectedId = this.entries[Math.min(i, this.entries.length - 1)]?.id ?? null;
@@ -292,7 +292,7 @@ export class AppState {
   undo(): void {
     const e = this.selected;
     if (!e || e.ops.length === 0) return;
-    const op = e.ops[e.ops.length - 1];
+    const op = e.ops[e.ops.length - 1]!;
     e.ops = e.ops.slice(0, -1);
     e.redo = [...e.redo, op];
     this.selectedCells = [];
@@ -303,7 +303,7 @@ export class AppState {
   redoEdit(): void {
     const e = this.selected;
     if (!e || e.redo.length === 0) return;
-    const op = e.redo[e.redo.length - 1];
+    const op = e.redo[e.redo.length - 1]!;
     e.redo = e.redo.slice(0, -1);
     e.ops = [...e.ops, op];
     this.selectedCells = [];
