@@ -142,16 +142,16 @@ describe('Tessellab web app', () => {
     }
     const csv = (await download('export-cells.csv')).bytes.toString('utf8').trim().split('\n');
     expect(csv.length - 1).toBe(cli.cells.count);
-    expect(csv[0].split(',')[0]).toBe('cell');
+    expect(csv[0]!.split(',')[0]).toBe('cell');
 
     const zip = unzipSync(new Uint8Array((await download('export-zip')).bytes));
     const names = Object.keys(zip);
     expect(names).toContain('summary.csv');
     const stem = fixture.name.replace('.png', '');
-    expect(strFromU8(zip[`${stem}/${stem}.cells.csv`])).toBe(readFileSync(join(cliOut, `${stem}.cells.csv`), 'utf8'));
-    const summaryRows = strFromU8(zip['summary.csv']).trim().split('\n');
+    expect(strFromU8(zip[`${stem}/${stem}.cells.csv`]!)).toBe(readFileSync(join(cliOut, `${stem}.cells.csv`), 'utf8'));
+    const summaryRows = strFromU8(zip['summary.csv']!).trim().split('\n');
     expect(summaryRows.length).toBe(3); // header + demo + fixture
-    expect(summaryRows[2].split(',')[0]).toBe(fixture.name);
+    expect(summaryRows[2]!.split(',')[0]).toBe(fixture.name);
     await shot('03-export');
   });
 
@@ -176,7 +176,7 @@ describe('Tessellab web app', () => {
       const t = app.selected.result.analysis.tessellation;
       let i = 0;
       while (t.edge[i]) i++;
-      const j = t.neighbourIndex[t.neighbourOffsets[i]];
+      const j = t.neighbourIndex[t.neighbourOffsets[i]!]!;
       app.selectCell(i + 1);
       app.selectCell(j + 1, true);
     });
@@ -200,9 +200,9 @@ describe('Tessellab web app', () => {
       const { analysis, overlay } = app.selected.result;
       const t = analysis.tessellation;
       let best = 0;
-      for (let i = 0; i < t.edge.length; i++) if (!t.edge[i] && t.area[i] > t.area[best]) best = i;
+      for (let i = 0; i < t.edge.length; i++) if (!t.edge[i] && t.area[i]! > t.area[best]!) best = i;
       const b = overlay.cellBoxes;
-      return { x: t.points[2 * best], y: t.points[2 * best + 1], y0: b[4 * best + 1] + analysis.field.y0, y1: b[4 * best + 3] + analysis.field.y0 };
+      return { x: t.points[2 * best]!, y: t.points[2 * best + 1]!, y0: b[4 * best + 1]! + analysis.field.y0, y1: b[4 * best + 3]! + analysis.field.y0 };
     });
     const box = (await page.getByTestId('bench').boundingBox())!;
     // The Bench fits the image: scale = min((w - 24) / W, (h - 24) / H), centred.

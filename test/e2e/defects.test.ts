@@ -146,7 +146,7 @@ describe('defects a new user hit', () => {
   });
 
   it('at 1024 × 768 no layer hides under the tool bar, the Bench refits after a resize, and the cell card leaves the scale tool\'s instructions free', async () => {
-    await selectEntry(frames[0].name);
+    await selectEntry(frames[0]!.name);
     await page.setViewportSize({ width: 1280, height: 800 });
     await page.getByRole('button', { name: 'Fit' }).click();
     await page.setViewportSize({ width: 1024, height: 768 });

@@ -32,7 +32,7 @@ export function corruptPng(dir = mkdtempSync(join(tmpdir(), 'tessellab-fx-'))): 
 export function pointsCsv(n: number, width: number, height: number, seed: number, dir = mkdtempSync(join(tmpdir(), 'tessellab-fx-'))): Fixture {
   const p = seedPoints(n, width, height, 'random', seed);
   const lines = ['x,y'];
-  for (let i = 0; i < p.length; i += 2) lines.push(`${p[i].toFixed(3)},${p[i + 1].toFixed(3)}`);
+  for (let i = 0; i < p.length; i += 2) lines.push(`${p[i]!.toFixed(3)},${p[i + 1]!.toFixed(3)}`);
   const bytes = new TextEncoder().encode(lines.join('\n') + '\n');
   const name = `points-${n}-${seed}.csv`;
   const path = join(dir, name);

@@ -47,14 +47,14 @@ describe('analyseFile', () => {
     await analyseFile(file(null), {});
     const got = calls.map((c) => [(c.args[1] as { umPerPx: number | null }).umPerPx, (c.args[2] as { calibrationSource?: string }).calibrationSource]);
     expect(got).toEqual([[0.5, 'file'], [0.25, 'user'], [null, 'none']]);
-    expect(calls[0].args[0]).toEqual({ kind: 'image', image: img, name: 'g.png' });
+    expect(calls[0]!.args[0]).toEqual({ kind: 'image', image: img, name: 'g.png' });
   });
 
   it('analyses a point set in its field, with no calibration source (a points file carries no pixel size)', async () => {
     await analyseFile(points, { pattern: 'points', umPerPx: 2 });
-    expect(calls[0].args[0]).toEqual({ kind: 'points', points: points.points, width: 6, height: 5, name: 'p.csv' });
-    expect((calls[0].args[1] as { umPerPx: number }).umPerPx).toBe(2);
-    expect((calls[0].args[2] as { calibrationSource?: string }).calibrationSource).toBeUndefined();
+    expect(calls[0]!.args[0]).toEqual({ kind: 'points', points: points.points, width: 6, height: 5, name: 'p.csv' });
+    expect((calls[0]!.args[1] as { umPerPx: number }).umPerPx).toBe(2);
+    expect((calls[0]!.args[2] as { calibrationSource?: string }).calibrationSource).toBeUndefined();
   });
 });
 
@@ -63,7 +63,7 @@ describe('remeasure', () => {
     // two cells side by side in a 20 x 20 px field at (10, 5)
     const labels: LabelImage = { width: 20, height: 20, count: 2, labels: Int32Array.from({ length: 400 }, (_, i) => (i % 20 < 10 ? 1 : 2)) };
     await remeasure(file(0.5), labels, [{ kind: 'merge', a: 1, b: 2 }], { field: { x0: 10, y0: 5, x1: 30, y1: 25 } });
-    const [edited, crop, settings, size, opts] = calls[0].args as [LabelImage, GreyImage, { umPerPx: number }, unknown, { calibrationSource: string }];
+    const [edited, crop, settings, size, opts] = calls[0]!.args as [LabelImage, GreyImage, { umPerPx: number }, unknown, { calibrationSource: string }];
     expect(edited.count).toBe(1);
     expect(edited.labels.every((v) => v === 1)).toBe(true);
     // the field's pixels: in this image a pixel's value is its index y * 40 + x

@@ -16,7 +16,7 @@ function grey(v: number): GreyImage {
 }
 
 function image(name: string, pages: GreyImage[], umPerPxFromFile: number | null = null): OpenedImage {
-  return { kind: 'image', name, image: pages[0], pages, width: 16, height: 16, umPerPxFromFile, wasColour: false };
+  return { kind: 'image', name, image: pages[0]!, pages, width: 16, height: 16, umPerPxFromFile, wasColour: false };
 }
 
 describe('gatherSeries', () => {
@@ -73,7 +73,7 @@ describe('analyseSeries', () => {
     expect(own.settings.umPerPx).toBe(0.2);
     const out = seriesFiles(fromFile);
     expect(out.map((f) => f.name)).toEqual(['kinetics.csv', 'kinetics.json', 'settings.json']);
-    expect(JSON.parse(out[2].text).umPerPx).toBe(0.5);
-    expect(out[0].text.split('\n')[0]).toContain('time_min');
+    expect(JSON.parse(out[2]!.text).umPerPx).toBe(0.5);
+    expect(out[0]!.text.split('\n')[0]).toContain('time_min');
   });
 });

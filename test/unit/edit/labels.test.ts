@@ -5,7 +5,7 @@ import type { LabelImage } from '../../../src/core/types';
 
 /** A label image from rows of digits (one char per pixel, '.' = 0). */
 function img(rows: string[]): LabelImage {
-  const h = rows.length, w = rows[0].length;
+  const h = rows.length, w = rows[0]!.length;
   const labels = new Int32Array(w * h);
   let count = 0;
   rows.forEach((r, y) => [...r].forEach((c, x) => {
@@ -19,7 +19,7 @@ function rows(l: LabelImage): string[] {
   const out: string[] = [];
   for (let y = 0; y < l.height; y++) {
     let r = '';
-    for (let x = 0; x < l.width; x++) { const v = l.labels[y * l.width + x]; r += v === 0 ? '.' : v.toString(36); }
+    for (let x = 0; x < l.width; x++) { const v = l.labels[y * l.width + x]!; r += v === 0 ? '.' : v.toString(36); }
     out.push(r);
   }
   return out;
@@ -126,7 +126,7 @@ describe('splitCell', () => {
     const s = splitCell(big, 1, 5, 2, 5, 4);
     expect(s.count).toBe(3);
     const pieces = [0, 0, 0, 0];
-    for (const v of s.labels) pieces[v]++;
+    for (const v of s.labels) pieces[v]!++;
     // 4 columns x 5 rows left of x=5, 3 columns x 5 rows right; the right one is new (id 3).
     expect(pieces[1]).toBe(20);
     expect(pieces[3]).toBe(15);

@@ -57,7 +57,7 @@ describe('bad input gets a typed, one-line error', () => {
     const whole = tiff({ width: W, height: H, pixels });
     // control: the same hand-built file, uncut, decodes to the pattern
     const ok = await decodeImage(whole);
-    expect(Array.from(ok.pages[0].data)).toEqual(Array.from(pixels));
+    expect(Array.from(ok.pages[0]!.data)).toEqual(Array.from(pixels));
     const e = await failure(whole.slice(0, whole.length - 300), 'cut.tif');
     expect(e).toBeInstanceOf(ImageDecodeError);
     expect(e.message).toMatch(/^cut\.tif: the TIFF file is truncated/);
@@ -139,7 +139,7 @@ describe('bad input gets a typed, one-line error', () => {
     const thin = encodePng({ width: 15, height: 40, data: new Uint8Array(600), channels: 1, bitDepth: 8 });
     expect(await failure(thin)).toBeInstanceOf(ImageTooSmallError);
     const least = encodePng({ width: 16, height: 16, data: new Uint8Array(256), channels: 1, bitDepth: 8 });
-    expect((await decodeImage(least)).pages[0].width).toBe(16);
+    expect((await decodeImage(least)).pages[0]!.width).toBe(16);
   });
 
   const huge = 'huge.png: 30000 x 30000 px exceeds the limit of 100 megapixels; crop or downsample first';

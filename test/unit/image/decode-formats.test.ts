@@ -8,7 +8,7 @@ import { fixture, grey8, grey16, rgb8, rgbpal, maxAbsDiff, W, H } from './fixtur
 // the three weights are quoted in countless texts), rounded, so ±1 is allowed.
 function bt601(rgb: Uint8Array, channels = 3): number[] {
   const out: number[] = [];
-  for (let i = 0; i < rgb.length; i += channels) out.push(0.299 * rgb[i] + 0.587 * rgb[i + 1] + 0.114 * rgb[i + 2]);
+  for (let i = 0; i < rgb.length; i += channels) out.push(0.299 * rgb[i]! + 0.587 * rgb[i + 1]! + 0.114 * rgb[i + 2]!);
   return out;
 }
 
@@ -22,7 +22,7 @@ describe('the same 8-bit grey gradient decodes to identical pixels in every loss
     it(f, async () => {
       const d = await decodeImage(fixture(f), { name: f });
       expect(d.pages).toHaveLength(1);
-      const page = d.pages[0];
+      const page = d.pages[0]!;
       expect([page.width, page.height, page.bitDepth]).toEqual([W, H, 8]);
       expect(page.data).toBeInstanceOf(Uint8Array);
       expect(Array.from(page.data)).toEqual(Array.from(grey8()));
@@ -35,7 +35,7 @@ describe('the same 8-bit grey gradient decodes to identical pixels in every loss
 describe('16-bit grey keeps every value exactly', () => {
   for (const f of ['grey16.png', 'grey16-none.tif', 'grey16-lzw.tif', 'grey16-tiles-deflate.tif', 'grey16-bigendian.tif']) {
     it(f, async () => {
-      const page = (await decodeImage(fixture(f))).pages[0];
+      const page = (await decodeImage(fixture(f))).pages[0]!;
       expect(page.bitDepth).toBe(16);
       expect(page.data).toBeInstanceOf(Uint16Array);
       expect(Array.from(page.data)).toEqual(Array.from(grey16()));
@@ -54,7 +54,7 @@ describe('colour becomes BT.601 grey', () => {
     it(`${f} equals 0.299 R + 0.587 G + 0.114 B rounded (within 0.5, so within the brief's ±1)`, async () => {
       const d = await decodeImage(fixture(f));
       expect(d.wasColour).toBe(true);
-      const page = d.pages[0];
+      const page = d.pages[0]!;
       expect([page.width, page.height, page.bitDepth]).toEqual([W, H, 8]);
       expect(maxAbsDiff(page.data, bt601(rgb))).toBeLessThanOrEqual(0.5);
     });
@@ -66,7 +66,7 @@ describe('JPEG (lossy, quality 100, no chroma subsampling)', () => {
     const d = await decodeImage(fixture('grey8.jpg'));
     expect(d.format).toBe('jpeg');
     expect(d.wasColour).toBe(false);
-    const page = d.pages[0];
+    const page = d.pages[0]!;
     expect([page.width, page.height, page.bitDepth]).toEqual([W, H, 8]);
     // trade: quality-100 JPEG of a smooth ramp differs by a few levels at most
     expect(maxAbsDiff(page.data, grey8())).toBeLessThanOrEqual(4);
@@ -74,7 +74,7 @@ describe('JPEG (lossy, quality 100, no chroma subsampling)', () => {
   it('colour JPEG gives BT.601 grey within a few levels', async () => {
     const d = await decodeImage(fixture('rgb8.jpg'));
     expect(d.wasColour).toBe(true);
-    expect(maxAbsDiff(d.pages[0].data, bt601(rgb8()))).toBeLessThanOrEqual(4);
+    expect(maxAbsDiff(d.pages[0]!.data, bt601(rgb8()))).toBeLessThanOrEqual(4);
   });
 });
 
@@ -82,10 +82,10 @@ describe('TIFF specifics', () => {
   it('multi-page: every page becomes one entry, in file order', async () => {
     const d = await decodeImage(fixture('multipage.tif'));
     expect(d.pages).toHaveLength(3);
-    for (let k = 0; k < 3; k++) expect(Array.from(d.pages[k].data)).toEqual(Array.from(grey8(k)));
+    for (let k = 0; k < 3; k++) expect(Array.from(d.pages[k]!.data)).toEqual(Array.from(grey8(k)));
   });
   it('WhiteIsZero is inverted to black-is-zero (TIFF 6.0, PhotometricInterpretation 0; derived)', async () => {
-    const page = (await decodeImage(fixture('grey8-whiteiszero.tif'))).pages[0];
+    const page = (await decodeImage(fixture('grey8-whiteiszero.tif'))).pages[0]!;
     expect(Array.from(page.data)).toEqual(Array.from(grey8(), (v) => 255 - v));
   });
 });

@@ -57,6 +57,6 @@ export function rgbpal(): Uint8Array {
 export function maxAbsDiff(a: ArrayLike<number>, b: ArrayLike<number>): number {
   if (a.length !== b.length) throw new Error(`length ${a.length} vs ${b.length}`);
   let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i] - b[i]));
+  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]! - b[i]!));
   return m;
 }

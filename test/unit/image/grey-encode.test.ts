@@ -51,11 +51,11 @@ describe('encodePng round-trips through decodeImage', () => {
     const rng = mulberry32(7);
     for (let i = data.length - 1; i > 0; i--) {
       const j = Math.floor(rng() * (i + 1));
-      const t = data[i]; data[i] = data[j]; data[j] = t;
+      const t = data[i]!; data[i] = data[j]!; data[j] = t;
     }
     const back = await decodeImage(encodePng({ width, height, data, channels: 1, bitDepth: 16 }));
     expect(back.format).toBe('png');
-    const page = back.pages[0];
+    const page = back.pages[0]!;
     expect([page.width, page.height, page.bitDepth]).toEqual([width, height, 16]);
     expect(page.data).toBeInstanceOf(Uint16Array);
     expect(page.data).toEqual(data);
@@ -63,14 +63,14 @@ describe('encodePng round-trips through decodeImage', () => {
   it('8-bit grey, RGB and RGBA', async () => {
     const width = 20, height = 16, n = width * height;
     const grey = Uint8Array.from({ length: n }, (_, i) => (i * 7) % 256);
-    expect((await decodeImage(encodePng({ width, height, data: grey, channels: 1, bitDepth: 8 }))).pages[0].data).toEqual(grey);
+    expect((await decodeImage(encodePng({ width, height, data: grey, channels: 1, bitDepth: 8 }))).pages[0]!.data).toEqual(grey);
     const rgb = Uint8Array.from({ length: 3 * n }, (_, i) => (i * 13) % 256);
     const fromRgb = await decodeImage(encodePng({ width, height, data: rgb, channels: 3, bitDepth: 8 }));
     expect(fromRgb.wasColour).toBe(true);
-    expect(fromRgb.pages[0].data).toEqual(toGrey({ width, height, data: rgb, channels: 3, bitDepth: 8 }).data);
+    expect(fromRgb.pages[0]!.data).toEqual(toGrey({ width, height, data: rgb, channels: 3, bitDepth: 8 }).data);
     const rgba = Uint8Array.from({ length: 4 * n }, (_, i) => (i * 5) % 256);
     const fromRgba = await decodeImage(encodePng({ width, height, data: rgba, channels: 4, bitDepth: 8 }));
-    expect(fromRgba.pages[0].data).toEqual(toGrey({ width, height, data: rgba, channels: 4, bitDepth: 8 }).data);
+    expect(fromRgba.pages[0]!.data).toEqual(toGrey({ width, height, data: rgba, channels: 4, bitDepth: 8 }).data);
   });
   it('refuses mismatched input', () => {
     expect(() => encodePng({ width: 2, height: 2, data: new Uint8Array(3), channels: 1, bitDepth: 8 })).toThrow(RangeError);

@@ -73,7 +73,7 @@ export function tiff(spec: TiffSpec): Uint8Array {
   ];
   const ifdSize = 2 + entries.length * 12 + 4;
   const dataAt = 8 + ifdSize;
-  entries[5][2] = dataAt;
+  entries[5]![2] = dataAt;
   const out = new Uint8Array(dataAt + spec.pixels.length);
   const v = new DataView(out.buffer);
   out.set([0x49, 0x49, 0x2a, 0x00]);

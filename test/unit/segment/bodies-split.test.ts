@@ -75,7 +75,7 @@ describe('concavity of an outline', () => {
     // The necks: the discs (drawn 0.6 px larger, so that they overlap and enclose the gap) cross on the gap's
     // side at √(25.6² − 25²) = 5.5 px from the midpoint of their centres, towards the gap's centre; a
     // cusp narrower than a pixel ends short of that point, hence 3 px.
-    for (const [a, b] of [[0, 1], [1, 2], [0, 2]]) {
+    for (const [a, b] of [[0, 1], [1, 2], [0, 2]] as const) {
       const mx = (c[a]![0]! + c[b]![0]!) / 2;
       const my = (c[a]![1]! + c[b]![1]!) / 2;
       const off = Math.sqrt((r + 0.6) ** 2 - r * r);

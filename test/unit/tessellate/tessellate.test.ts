@@ -9,8 +9,8 @@ const field: Rect = { x0: 10, y0: -5, x1: 1010, y1: 695 };
 function randomSet(n: number, seed: number): Float64Array {
   const p = seedPoints(n, field.x1 - field.x0, field.y1 - field.y0, 'random', seed);
   for (let i = 0; i < n; i++) {
-    p[2 * i] += field.x0;
-    p[2 * i + 1] += field.y0;
+    p[2 * i]! += field.x0;
+    p[2 * i + 1]! += field.y0;
   }
   return p;
 }

@@ -31,7 +31,7 @@ function checkAgainstImage(l: LabelImage): void {
       expect(x1).toBeGreaterThan(x0);
       for (let x = x0; x < x1; x++) {
         expect(l.labels[y * w + x]).toBe(c);
-        seen[y * w + x]++;
+        seen[y * w + x]!++;
       }
     });
   }
