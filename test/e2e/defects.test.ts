@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
 import type { PreviewServer } from 'vite';
-import { SCREENSHOTS, launch, serveApp } from './harness';
+import { SCREENSHOTS, launch, serveApp, screenshotsAt } from './harness';
 import { wallsPng, type Fixture } from './fixtures';
 import { GRAIN_COLOURS, LAYER_COLOURS } from '../../src/core/export/palette';
 
@@ -61,13 +61,7 @@ function overlap(a: { x: number; y: number; width: number; height: number }, b: 
   return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
 }
 
-async function shots(name: string): Promise<void> {
-  for (const [w, h] of [[1280, 800], [1024, 768], [1920, 1080]] as const) {
-    await page.setViewportSize({ width: w, height: h });
-    await page.screenshot({ path: join(SCREENSHOTS, `${name}-${w}x${h}.png`) });
-  }
-  await page.setViewportSize({ width: 1280, height: 800 });
-}
+const shots = (name: string): Promise<void> => screenshotsAt(page, name);
 
 beforeAll(async () => {
   mkdirSync(SCREENSHOTS, { recursive: true });

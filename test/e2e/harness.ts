@@ -52,3 +52,12 @@ export async function launch(dir = mkdtempSync(join(tmpdir(), 'tessellab-e2e-'))
   context.setDefaultTimeout(0);
   return { context, dir, close: async () => { await context.close(); rmSync(dir, { recursive: true, force: true }); } };
 }
+
+/** Screenshots of the page at the three sizes the app is checked at (1280×800, 1024×768, 1920×1080), named name-WxH.png; the page is left at 1280×800. */
+export async function screenshotsAt(page: import('playwright-core').Page, name: string): Promise<void> {
+  for (const [w, h] of [[1280, 800], [1024, 768], [1920, 1080]] as const) {
+    await page.setViewportSize({ width: w, height: h });
+    await page.screenshot({ path: join(SCREENSHOTS, `${name}-${w}x${h}.png`) });
+  }
+  await page.setViewportSize({ width: 1280, height: 800 });
+}

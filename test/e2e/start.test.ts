@@ -12,7 +12,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { BrowserContext, Page, Route } from 'playwright-core';
 import type { PreviewServer } from 'vite';
-import { ROOT, SCREENSHOTS, launch, serveApp } from './harness';
+import { ROOT, SCREENSHOTS, launch, serveApp, screenshotsAt } from './harness';
 
 let server: PreviewServer;
 let url = '';
@@ -41,13 +41,7 @@ async function release(): Promise<void> {
 
 type Win = { __tessellab: { cvStatus: string; entries: { name: string; status: string; count: number | null }[] } };
 
-async function sizes(name: string): Promise<void> {
-  for (const [w, h] of [[1280, 800], [1024, 768], [1920, 1080]] as const) {
-    await page.setViewportSize({ width: w, height: h });
-    await page.screenshot({ path: join(SCREENSHOTS, `${name}-${w}x${h}.png`) });
-  }
-  await page.setViewportSize({ width: 1280, height: 800 });
-}
+const sizes = (name: string): Promise<void> => screenshotsAt(page, name);
 
 beforeAll(async () => {
   mkdirSync(SCREENSHOTS, { recursive: true });

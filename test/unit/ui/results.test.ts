@@ -7,21 +7,9 @@
 import { describe, expect, it } from 'vitest';
 import { analyze } from '../../../src/core/analyze';
 import { synthesize } from '../../../src/core/synth/index';
-import type { GreyImage } from '../../../src/core/types';
+import { noise } from '../../helpers/noise';
 import { resultsCard } from '../../../src/ui/results';
 
-/** White noise: the sum of four uniforms per pixel, no structure at all. */
-function noise(W: number, H: number, seed: number): GreyImage {
-  let s = seed;
-  const rnd = () => ((s = (s * 16807) % 2147483647) / 2147483647);
-  const data = new Uint8Array(W * H);
-  for (let i = 0; i < data.length; i++) {
-    let g = 0;
-    for (let k = 0; k < 4; k++) g += rnd();
-    data[i] = Math.max(0, Math.min(255, Math.round(128 + (g - 2) * 110)));
-  }
-  return { width: W, height: H, data, bitDepth: 8 };
-}
 
 describe('the Results card', () => {
   it('a regular sheet: its count, the density per 100 × 100 px, the verdict and the statistic behind it', async () => {
