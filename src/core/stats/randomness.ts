@@ -392,7 +392,7 @@ export function randomness(input: RandomnessInput): RandomnessResult {
     verdictText,
     alpha,
     basis: {
-      test: 'combined Monte Carlo test (largest standardised departure)', combines: used.map((u) => u.label), pValue: basisP, strongest, regular: regularOnes, irregular: irregularOnes,
+      test: 'combined Monte Carlo test (largest standardised departure or agreement of the statistics)', combines: used.map((u) => u.label), pValue: basisP, strongest, regular: regularOnes, irregular: irregularOnes,
     },
     tests,
     reference: ref ? referenceSummary(ref) : null,
