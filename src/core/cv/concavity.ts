@@ -16,21 +16,7 @@ import { matFromArray, withMats } from './mats';
  */
 export function concavityDepth(cv: CV, mask: Uint8Array, width: number, height: number): Float32Array {
   const depth = new Float32Array(width * height);
-  withMats((track) => {
-    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
-    const contours = track(new cv.MatVector());
-    const hier = track(new cv.Mat());
-    cv.findContours(src, contours, hier, cv.RETR_EXTERNAL, cv.CHAIN_APPROX_NONE);
-    const n = contours.size() as number;
-    for (let k = 0; k < n; k++) {
-      const ct = contours.get(k);
-      try {
-        markContour(ct.data32S as Int32Array, depth, width);
-      } finally {
-        ct.delete();
-      }
-    }
-  });
+  forEachOutline(cv, mask, width, height, (pts) => markContour(pts, depth, width));
   return depth;
 }
 
@@ -48,8 +34,35 @@ export function concavityDepth(cv: CV, mask: Uint8Array, width: number, height: 
 export function holeCusps(cv: CV, holes: Uint8Array, width: number, height: number, maxAngleDeg: number): Uint8Array {
   const cusp = new Uint8Array(width * height);
   const cosMax = Math.cos((maxAngleDeg * Math.PI) / 180);
+  forEachOutline(cv, holes, width, height, (pts) => {
+    const m = pts.length >> 1;
+    if (m < 2 * CUSP_ARM + 2) return;
+    for (const i of hullIndices(pts, m)) {
+      const a = (i - CUSP_ARM + m) % m;
+      const b = (i + CUSP_ARM) % m;
+      const ux = pts[2 * a]! - pts[2 * i]!;
+      const uy = pts[2 * a + 1]! - pts[2 * i + 1]!;
+      const vx = pts[2 * b]! - pts[2 * i]!;
+      const vy = pts[2 * b + 1]! - pts[2 * i + 1]!;
+      const nu = Math.hypot(ux, uy);
+      const nv = Math.hypot(vx, vy);
+      if (nu === 0 || nv === 0 || (ux * vx + uy * vy) / (nu * nv) < cosMax) continue;
+      for (let d = -1; d <= 1; d++) {
+        const j = (i + d + m) % m;
+        cusp[pts[2 * j + 1]! * width + pts[2 * j]!] = 1;
+      }
+    }
+  });
+  return cusp;
+}
+
+/**
+ * Calls `fn` with the points (interleaved x, y, in order) of the outer outline of each connected part of a
+ * 0/1 mask, found by opencv.js's findContours; every Mat freed.
+ */
+function forEachOutline(cv: CV, mask: Uint8Array, width: number, height: number, fn: (pts: Int32Array) => void): void {
   withMats((track) => {
-    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, holes));
+    const src = track(matFromArray(cv, height, width, cv.CV_8UC1, mask));
     const contours = track(new cv.MatVector());
     const hier = track(new cv.Mat());
     cv.findContours(src, contours, hier, cv.RETR_EXTERNAL, cv.CHAIN_APPROX_NONE);
@@ -57,30 +70,12 @@ export function holeCusps(cv: CV, holes: Uint8Array, width: number, height: numb
     for (let k = 0; k < n; k++) {
       const ct = contours.get(k);
       try {
-        const pts = ct.data32S as Int32Array;
-        const m = pts.length >> 1;
-        if (m < 2 * CUSP_ARM + 2) continue;
-        for (const i of hullIndices(pts, m)) {
-          const a = (i - CUSP_ARM + m) % m;
-          const b = (i + CUSP_ARM) % m;
-          const ux = pts[2 * a]! - pts[2 * i]!;
-          const uy = pts[2 * a + 1]! - pts[2 * i + 1]!;
-          const vx = pts[2 * b]! - pts[2 * i]!;
-          const vy = pts[2 * b + 1]! - pts[2 * i + 1]!;
-          const nu = Math.hypot(ux, uy);
-          const nv = Math.hypot(vx, vy);
-          if (nu === 0 || nv === 0 || (ux * vx + uy * vy) / (nu * nv) < cosMax) continue;
-          for (let d = -1; d <= 1; d++) {
-            const j = (i + d + m) % m;
-            cusp[pts[2 * j + 1]! * width + pts[2 * j]!] = 1;
-          }
-        }
+        fn(ct.data32S as Int32Array);
       } finally {
         ct.delete();
       }
     }
   });
-  return cusp;
 }
 
 /** How far (contour steps, about px) along the outline the angle at a hull corner is measured. */
