@@ -121,6 +121,9 @@ export function scaleSettings(s: SettingsInput, f: number): SettingsInput {
     c.walls.smoothSigmaPx = len(c.walls.smoothSigmaPx);
     c.walls.adaptiveBlockPx = odd(c.walls.adaptiveBlockPx);
     if (c.walls.seedErodePx !== undefined) c.walls.seedErodePx = Math.round(c.walls.seedErodePx / f);
+    // The size hint and the split dynamic are lengths; -1 (auto) and 0 (never split) keep their meaning.
+    if (c.walls.cellDiameterPx !== undefined && c.walls.cellDiameterPx > 0) c.walls.cellDiameterPx = Math.max(2, c.walls.cellDiameterPx / f);
+    if (c.walls.markerDynamicPx !== undefined && c.walls.markerDynamicPx > 0) c.walls.markerDynamicPx = c.walls.markerDynamicPx / f;
   }
   if (c.bodies) {
     c.bodies = { ...c.bodies };

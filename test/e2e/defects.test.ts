@@ -109,6 +109,15 @@ describe('defects a new user hit', () => {
     await page.locator('#w-thr').selectOption('otsu');
     await expect.poll(() => page.getByTestId('segment-used').textContent()).toMatch(/threshold \d+ \(Otsu\)/);
     await settledAll();
+    // The size hint: read from the image by default, and the value typed in is the one used.
+    await expect.poll(() => page.getByTestId('cell-size-used').textContent()).toMatch(/read from the image/);
+    await page.locator('#w-diam').fill('30');
+    await page.locator('#w-diam').dispatchEvent('change');
+    await expect.poll(() => page.getByTestId('cell-size-used').textContent()).toMatch(/used: 30 px.*as set/);
+    await page.locator('#w-diam').fill('-1');
+    await page.locator('#w-diam').dispatchEvent('change');
+    await expect.poll(() => page.getByTestId('cell-size-used').textContent()).toMatch(/read from the image/);
+    await settledAll();
   });
 
   it('the header stays on one line when Cancel appears, and images added before a reload all come back analysed', async () => {

@@ -46,6 +46,12 @@ describe('worker helpers', () => {
     expect((s.walls?.adaptiveBlockPx ?? 0) % 2).toBe(1);
     expect(s.walls?.flattenRadiusPx).toBe(-1);
     expect(s.walls?.seedErodePx).toBe(1);
+    // The size hint and the split dynamic are lengths too (derived: a 4× smaller preview has 4× smaller cells);
+    // -1 (auto) and 0 (never split) keep their meaning.
+    const h = scaleSettings({ walls: { cellDiameterPx: 40, markerDynamicPx: 6 } }, 4);
+    expect([h.walls?.cellDiameterPx, h.walls?.markerDynamicPx]).toEqual([10, 1.5]);
+    const auto = scaleSettings({ walls: { cellDiameterPx: -1, markerDynamicPx: 0 } }, 4);
+    expect([auto.walls?.cellDiameterPx, auto.walls?.markerDynamicPx]).toEqual([-1, 0]);
   });
   it('lists each buffer to transfer once', () => {
     const a = new Float64Array(4);
