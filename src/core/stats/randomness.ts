@@ -348,7 +348,9 @@ export function randomness(input: RandomnessInput): RandomnessResult {
       // of the statistics when it carried the test, else the largest single departure.
       const strongestRegular = c.byAgreement ? c.agreement! > 0 : (v < ref.mean[s.key]) === (s.regular === 'low');
       const head = `combined Monte Carlo test of ${used.map((u) => u.label).join(', ')}: p = ${fmtP(c.p)} at α = ${alpha}, ${ref.options.replicates} replicates`;
-      const detail = (c.byAgreement ? `carried by the statistics' agreement, ${fmt(Math.abs(c.agreement!))} sd towards ${c.agreement! > 0 ? 'regular' : 'irregular'}; ` : '')
+      // The agreement is named only when it made the departure significant.
+      const carried = c.byAgreement && c.p < alpha;
+      const detail = (carried ? `carried by the statistics' agreement, ${fmt(Math.abs(c.agreement!))} sd towards ${c.agreement! > 0 ? 'regular' : 'irregular'}; ` : '')
         + `strongest: ${s.label} = ${fmt(v)} against ${fmt(ref.mean[s.key])} ± ${fmt(ref.sd[s.key])} for random seeding, p = ${fmtP(c.pEach[c.strongest]!)}`;
       if (!(c.p < alpha)) {
         verdict = 'consistent with random seeding';
