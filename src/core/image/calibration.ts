@@ -111,18 +111,29 @@ export function screenDpi(umPerPx: number): number | null {
   return n % 12 === 0 || n % 25 === 0 ? n : null;
 }
 
+/** How much x and y pixel sizes may differ (relative) and still count as square: 1 %. */
+const SQUARE_TOLERANCE = 0.01;
+
 /**
  * Decides whether a file's pixel size is a calibration; the one place where this is decided, for every format.
+ * - Pixels whose x and y sizes differ by more than 1 % are refused: every area and length would be off along y.
  * - Dots per length at a round screen or print resolution ({@link screenDpi}), with no microscope metadata,
  *   are not a calibration: no pixel size (results in px), with a notice saying how to confirm it.
  * - Otherwise the x size is used (its plausible band is checked by {@link resolvePixelSize}).
  *
  * @param tags - what the file's tags give, or null when it gives nothing
- * @param _name - file name, for messages
+ * @param name - file name, put at the start of the error message
+ * @throws CalibrationError when the pixels are not square
  */
-export function filePixelSize(tags: FilePixelSizeTags | null, _name?: string): FilePixelSize {
+export function filePixelSize(tags: FilePixelSizeTags | null, name?: string): FilePixelSize {
   const x = tags?.xUm ?? null;
   if (tags === null || x === null) return { umPerPx: null, notice: null };
+  const y = tags.yUm;
+  if (y !== null && y > 0 && Math.abs(x / y - 1) > SQUARE_TOLERANCE) {
+    throw new CalibrationError(
+      `${name ? `${name}: ` : ''}the file's pixels are not square (${sig(x)} µm wide, ${sig(y)} µm high); resample the image to square pixels (the same size in x and y) and save it again.`,
+    );
+  }
   const dpi = tags.kind === 'resolution' ? screenDpi(x) : null;
   if (dpi !== null) {
     return {

@@ -34,7 +34,7 @@ export interface DecodeOptions {
  *
  * Whether the file's pixel size is a calibration is decided by {@link filePixelSize}: a round screen or print
  * resolution (72, 96, 300 dpi ...) without microscope metadata gives `umPerPx` null and a `pixelSizeNotice`;
- * when x and y sizes differ (non-square pixels) the x size is used.
+ * x and y sizes that differ by more than 1 % (non-square pixels) are refused.
  *
  * @param bytes - the whole file
  * @param opts - `name` for messages; `maxPixels` to lower or raise the size limit
@@ -44,6 +44,7 @@ export interface DecodeOptions {
  *   names it, e.g. the TIFF compression code, float or 32-bit samples)
  * @throws ImageTooSmallError - a side below 16 px
  * @throws ImageTooLargeError - width x height above the limit
+ * @throws CalibrationError - the file's pixels are not square
  */
 export async function decodeImage(bytes: Uint8Array, opts: DecodeOptions = {}): Promise<DecodedImage> {
   const { name } = opts;

@@ -70,3 +70,22 @@ describe('a screen or print resolution is not a calibration', () => {
     expect(user.notice).toBeUndefined();
   });
 });
+
+// Non-square pixels: x and y pixels per unit differ (PNG pHYs x ≠ y; TIFF XResolution ≠ YResolution).
+describe('non-square pixels are refused with one line saying what to do', () => {
+  it('PNG pHYs 2 000 000 x 1 000 000 px/m (0.5 x 1 µm): CalibrationError', async () => {
+    const p = decodeImage(withPhys(grey(), 2_000_000, 1_000_000), { name: 'a.png' });
+    await expect(p).rejects.toThrow(CalibrationError);
+    await expect(decodeImage(withPhys(grey(), 2_000_000, 1_000_000), { name: 'a.png' })).rejects.toThrow(
+      /^a\.png: the file's pixels are not square \(0\.5 µm wide, 1 µm high\); resample the image to square pixels[^\n]*$/,
+    );
+  });
+  it('TIFF 300 x 600 dpi is refused too (the pixels are stretched whatever the unit means)', async () => {
+    await expect(decodeImage(tif([300, 1], [600, 1], 2))).rejects.toThrow(/not square/);
+  });
+  it('a difference within 1 % counts as square (2835 x 2834 px/m rounds the same 72 dpi)', async () => {
+    const d = await decodeImage(withPhys(grey(), 2835, 2834));
+    expect(d.umPerPx).toBeNull();
+    expect(d.pixelSizeNotice).toMatch(/72 dpi/);
+  });
+});
