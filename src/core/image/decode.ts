@@ -23,7 +23,7 @@ export interface DecodeOptions {
  *
  * - PNG (fast-png): grey, grey + alpha, RGB, RGBA at 8 or 16 bit, palette, 1/2/4-bit grey (scaled to 0..255).
  *   Pixel size from the pHYs chunk when its unit is the metre: µm/px = 10^6 / (pixels per metre).
- * - JPEG (jpeg-js): 8-bit grey or colour (baseline or progressive).
+ * - JPEG (jpeg-js): 8-bit grey or colour (baseline or progressive), turned upright by its EXIF Orientation tag.
  * - TIFF (geotiff): 8 or 16 bit unsigned, grey / RGB / palette, every page (IFD) one entry of `pages`, strips
  *   or tiles, uncompressed / LZW / Deflate / PackBits. Pixel size from OME-XML PhysicalSizeX in the
  *   ImageDescription when present, else from XResolution with ResolutionUnit 2 (inch) or 3 (cm).

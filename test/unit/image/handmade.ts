@@ -113,3 +113,25 @@ export function withPhys(png: Uint8Array, x: number, y: number, unit = 1): Uint8
   // IHDR is always first: 8-byte signature + 4 length + 4 type + 13 data + 4 crc = 33 bytes.
   return concat([png.subarray(0, 33), pngChunk('pHYs', data), png.subarray(33)]);
 }
+
+/**
+ * A JPEG APP1 segment (marker, length, "Exif\0\0", a little-endian TIFF header and an IFD0 of one entry)
+ * whose only tag is Orientation (0x0112, SHORT, count 1) = `orientation` (Exif 2.3, CIPA DC-008).
+ */
+export function exifApp1(orientation: number): Uint8Array {
+  const tiffPart = new Uint8Array(8 + 2 + 12 + 4);
+  const v = new DataView(tiffPart.buffer);
+  tiffPart.set([0x49, 0x49, 0x2a, 0x00]);
+  v.setUint32(4, 8, true);
+  v.setUint16(8, 1, true);
+  v.setUint16(10, 0x0112, true);
+  v.setUint16(12, 3, true);
+  v.setUint32(14, 1, true);
+  v.setUint16(18, orientation, true);
+  v.setUint32(22, 0, true);
+  const exif = concat([new Uint8Array([0x45, 0x78, 0x69, 0x66, 0, 0]), tiffPart]);
+  const head = new Uint8Array(4);
+  head.set([0xff, 0xe1]);
+  new DataView(head.buffer).setUint16(2, exif.length + 2);
+  return concat([head, exif]);
+}
