@@ -12,7 +12,7 @@ import { calibrated } from './calibration';
 import type { OpenedFile } from './open';
 
 /** Options of an analysis; the calibration source is the application layer's to set. */
-export type RunOptions = Omit<AnalyzeOptions, 'calibrationSource'>;
+export type RunOptions = Omit<AnalyzeOptions, 'calibrationSource' | 'calibrationNotice'>;
 
 /**
  * Analyses an opened file: an image with the pixel size of {@link calibrated} (its source goes into the
@@ -23,8 +23,8 @@ export async function analyseFile(file: OpenedFile, settings: SettingsInput | Se
   if (file.kind === 'points') {
     return analyze({ kind: 'points', points: file.points, width: file.width, height: file.height, name: file.name }, s, opts);
   }
-  const c = calibrated(s, file.umPerPxFromFile);
-  return analyze({ kind: 'image', image: file.image, name: file.name }, c.settings, { ...opts, calibrationSource: c.source });
+  const c = calibrated(s, file.umPerPxFromFile, file.calibrationNotice);
+  return analyze({ kind: 'image', image: file.image, name: file.name }, c.settings, { ...opts, calibrationSource: c.source, calibrationNotice: c.notice });
 }
 
 /**
@@ -45,7 +45,7 @@ export async function remeasure(
   const edited = applyEdits(labels, ops);
   const size = { width: file.width, height: file.height };
   if (file.kind === 'points') return reanalyzeLabels(edited, null, s, size, opts);
-  const c = calibrated(s, file.umPerPxFromFile);
+  const c = calibrated(s, file.umPerPxFromFile, file.calibrationNotice);
   const crop = cropImage(file.image, resolveField(c.settings.field, file.width, file.height));
-  return reanalyzeLabels(edited, crop, c.settings, size, { ...opts, calibrationSource: c.source });
+  return reanalyzeLabels(edited, crop, c.settings, size, { ...opts, calibrationSource: c.source, calibrationNotice: c.notice });
 }

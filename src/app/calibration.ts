@@ -13,9 +13,16 @@ export type CalibrationSource = ResolvedPixelSize['source'];
  * user's), else the file's, else none (results in px).
  *
  * @param fileUmPerPx µm/px read from the file, or null
+ * @param fileNotice why a pixel size the file gives is not used (OpenedImage.calibrationNotice); kept in
+ *   `notice` unless the user's value is used
  * @throws CalibrationError when the settings' value is given but not a finite number above 0
  */
-export function calibrated(settings: Settings, fileUmPerPx: number | null): { settings: Settings; source: CalibrationSource } {
+export function calibrated(
+  settings: Settings,
+  fileUmPerPx: number | null,
+  fileNotice?: string,
+): { settings: Settings; source: CalibrationSource; notice?: string } {
   const px = resolvePixelSize(settings.umPerPx, fileUmPerPx);
-  return { settings: { ...settings, umPerPx: px.umPerPx }, source: px.source };
+  const notice = px.source !== 'user' && fileNotice ? { notice: fileNotice } : {};
+  return { settings: { ...settings, umPerPx: px.umPerPx }, source: px.source, ...notice };
 }

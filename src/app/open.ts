@@ -31,6 +31,8 @@ export interface OpenedImage {
   height: number;
   /** µm per px read from the file's tags, or null. */
   umPerPxFromFile: number | null;
+  /** Why a pixel size the file gives is not used (a screen or print resolution such as 72 dpi); absent otherwise. */
+  calibrationNotice?: string;
   wasColour: boolean;
 }
 
@@ -96,6 +98,6 @@ export async function openFile(name: string, bytes: Uint8Array, opts: OpenOption
   const image = d.pages[0]!;
   return {
     kind: 'image', name, image, pages: d.pages, width: image.width, height: image.height,
-    umPerPxFromFile: d.umPerPx, wasColour: d.wasColour,
+    umPerPxFromFile: d.umPerPx, wasColour: d.wasColour, ...(d.pixelSizeNotice ? { calibrationNotice: d.pixelSizeNotice } : {}),
   };
 }

@@ -44,6 +44,8 @@ export interface AnalyzeOptions {
   referencePool?: ReferencePool | null;
   /** Where settings.umPerPx came from, recorded in the summary; default 'user' when it is set, else 'none'. */
   calibrationSource?: CalibrationSource;
+  /** Why a pixel size the file gives is not used, recorded in the summary's calibration block. */
+  calibrationNotice?: string;
   /**
    * A tissue mask: one byte per pixel of the image (points: of the width x height field), nonzero = tissue.
    * Only the cells with most of their pixels in it are kept (cut to it; points: those in it); cells touching its
@@ -312,7 +314,7 @@ async function measureLabels(
       mask: geom,
     });
     const summary = buildSummary({
-      settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts), mask: geom,
+      settings, width, height, field, count: n, edge: sums.edge, segment, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts), calibrationNotice: opts.calibrationNotice, mask: geom,
       events: events ? eventsSummary(events, sums.n, sums.edge) : undefined, grainSize: grainSummary,
     });
     progress('statistics', 1);
@@ -428,7 +430,7 @@ async function analyzePoints(points: Float64Array, width: number, height: number
     progress('statistics', 0);
     const rnd = randomness({ ...(reference ? await reference.result() : {}), tessellation: tess, sides: tess.sides, area: tess.area, edge: tess.edge, settings, labels: null, mask: geom });
     const summary = buildSummary({
-      settings, width, height, field, count: n, edge: tess.edge, segment: null, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts), mask: geom,
+      settings, width, height, field, count: n, edge: tess.edge, segment: null, randomness: rnd, calibrationSource: calibrationSourceOf(settings, opts), calibrationNotice: opts.calibrationNotice, mask: geom,
       events: events ? eventsSummary(events, tess.area, tess.edge) : undefined,
     });
     progress('statistics', 1);

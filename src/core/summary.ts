@@ -99,7 +99,8 @@ export interface Summary {
   /** Micrometres per pixel, or null when unknown (every figure is then in px). */
   umPerPx: number | null;
   units: { length: 'px' | 'um'; area: 'px2' | 'um2' };
-  calibration: { source: CalibrationSource };
+  /** Where the pixel size came from; `notice` says why a pixel size the file gives is not used (e.g. 72 dpi). */
+  calibration: { source: CalibrationSource; notice?: string };
   /** The analysed rectangle (px) and its area (summary units), and the tissue mask in it when one was given. */
   field: Rect & { area: number; mask?: MaskSummary };
   segmentation: SegmentInfo | null;
@@ -189,6 +190,8 @@ export interface SummaryInput {
   segment: SegmentInfo | null;
   randomness: RandomnessResult;
   calibrationSource: CalibrationSource;
+  /** Why a pixel size the file gives is not used; absent when there is nothing to say. */
+  calibrationNotice?: string;
   events?: EventsSummary;
   grainSize?: GrainSizeSummary;
   /** The tissue mask, when one was given. */
@@ -224,7 +227,7 @@ export function buildSummary(inp: SummaryInput): Summary {
     pattern: settings.pattern,
     umPerPx: u,
     units: { length: u === null ? 'px' : 'um', area: u === null ? 'px2' : 'um2' },
-    calibration: { source: inp.calibrationSource },
+    calibration: { source: inp.calibrationSource, ...(inp.calibrationNotice ? { notice: inp.calibrationNotice } : {}) },
     field: { ...field, area: fieldArea * a2, ...(mask ? { mask } : {}) },
     segmentation: inp.segment,
     quality: r.quality,

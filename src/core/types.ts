@@ -15,6 +15,8 @@ export interface DecodedImage {
   pages: GreyImage[];
   /** Micrometres per pixel read from the file (TIFF resolution tags, OME PhysicalSizeX), or null. */
   umPerPx: number | null;
+  /** Why a pixel size the file gives is not used (a screen or print resolution such as 72 dpi); absent otherwise. */
+  pixelSizeNotice?: string;
   /** Whether the source had colour channels that were converted to grey. */
   wasColour: boolean;
 }

@@ -128,6 +128,7 @@ async function runBatch(b: Batch): Promise<number> {
       const analysis = await analyseFile(opened, base, {
         events: b.events, referencePool: b.referencePool, onProgress: (s, f) => f === 0 && say(s), ...(b.mask ? { mask: maskFor(b.mask, opened.width, opened.height) } : {}),
       });
+      if (analysis.summary.calibration.notice) say(`notice: ${analysis.summary.calibration.notice}`);
       say('writing');
       const outlines = await outlinesOf(analysis);
       // imageFiles names the files after the file's stem; this run's name for the input replaces it.

@@ -68,3 +68,83 @@ export function resolvePixelSize(
   if (plausiblePixelSize(fileUmPerPx)) return { umPerPx: fileUmPerPx, source: 'file' };
   return { umPerPx: null, source: 'none' };
 }
+
+/** The pixel size a file's tags give, before it is accepted as a calibration. */
+export interface FilePixelSizeTags {
+  /** µm per pixel in x, or null when the file gives none. */
+  xUm: number | null;
+  /** µm per pixel in y, or null when the file gives none. */
+  yUm: number | null;
+  /**
+   * 'microscope': a microscope's own metadata (OME-XML PhysicalSizeX/Y); 'resolution': dots per length
+   * (TIFF XResolution/YResolution, PNG pHYs), which editors and cameras also write for screens and printers.
+   */
+  kind: 'microscope' | 'resolution';
+}
+
+/** The file's pixel size as a calibration: the value used, or null with a notice saying why it is not used. */
+export interface FilePixelSize {
+  umPerPx: number | null;
+  /** One sentence for the user when the file gives a pixel size that is not used; null otherwise. */
+  notice: string | null;
+}
+
+/** Micrometres in one inch (international inch, 25.4 mm exactly). */
+const UM_PER_INCH = 25400;
+
+/** The highest dots per inch taken as a screen, print or scanner setting (scanners' common top setting). */
+export const SCREEN_DPI_MAX = 4800;
+
+/**
+ * The screen or print resolution a pixel size stands for, in whole dots per inch, or null when it is not one.
+ * A round resolution is a whole number of dots per inch up to {@link SCREEN_DPI_MAX} that is a multiple of 12
+ * or of 25: 72, 96, 144, 192 (screens), 75, 100, 150, 200, 300, 600, 1200 ... (printers and scanners). The
+ * whole number is matched within 0.02 dpi, because a PNG stores whole pixels per metre (72 dpi is 2835 px/m,
+ * 72.009 dpi). A microscope's round pixel sizes are not such values (10 µm/px is 2540 dpi, 0.5 µm/px is
+ * 50 800 dpi); the ones that are lie at 127 µm/px and coarser.
+ */
+export function screenDpi(umPerPx: number): number | null {
+  if (!(umPerPx > 0) || !Number.isFinite(umPerPx)) return null;
+  const dpi = UM_PER_INCH / umPerPx;
+  const n = Math.round(dpi);
+  if (n < 1 || n > SCREEN_DPI_MAX || Math.abs(dpi - n) > 0.02) return null;
+  return n % 12 === 0 || n % 25 === 0 ? n : null;
+}
+
+/** How much x and y pixel sizes may differ (relative) and still count as square: 1 %. */
+const SQUARE_TOLERANCE = 0.01;
+
+/**
+ * Decides whether a file's pixel size is a calibration; the one place where this is decided, for every format.
+ * - Pixels whose x and y sizes differ by more than 1 % are refused: every area and length would be off along y.
+ * - Dots per length at a round screen or print resolution ({@link screenDpi}), with no microscope metadata,
+ *   are not a calibration: no pixel size (results in px), with a notice saying how to confirm it.
+ * - Otherwise the x size is used (its plausible band is checked by {@link resolvePixelSize}).
+ *
+ * @param tags - what the file's tags give, or null when it gives nothing
+ * @param name - file name, put at the start of the error message
+ * @throws CalibrationError when the pixels are not square
+ */
+export function filePixelSize(tags: FilePixelSizeTags | null, name?: string): FilePixelSize {
+  const x = tags?.xUm ?? null;
+  if (tags === null || x === null) return { umPerPx: null, notice: null };
+  const y = tags.yUm;
+  if (y !== null && y > 0 && Math.abs(x / y - 1) > SQUARE_TOLERANCE) {
+    throw new CalibrationError(
+      `${name ? `${name}: ` : ''}the file's pixels are not square (${sig(x)} µm wide, ${sig(y)} µm high); resample the image to square pixels (the same size in x and y) and save it again.`,
+    );
+  }
+  const dpi = tags.kind === 'resolution' ? screenDpi(x) : null;
+  if (dpi !== null) {
+    return {
+      umPerPx: null,
+      notice: `The file's resolution of ${dpi} dpi (${sig(x)} µm per pixel) is a screen or print setting, not a calibration, so results are in px; if it is the true pixel size, confirm it with --um-per-px ${sig(x)} (in the app: the Scale panel).`,
+    };
+  }
+  return { umPerPx: x, notice: null };
+}
+
+/** Four significant digits, for messages. */
+function sig(v: number): string {
+  return String(Number(v.toPrecision(4)));
+}

@@ -1,4 +1,5 @@
 import type { DecodedImage, GreyImage } from '../types';
+import { filePixelSize } from './calibration';
 import { toGrey } from './grey';
 import { decodeJpegRaster } from './jpeg';
 import { MAX_PIXELS } from './limits';
@@ -22,7 +23,7 @@ export interface DecodeOptions {
  *
  * - PNG (fast-png): grey, grey + alpha, RGB, RGBA at 8 or 16 bit, palette, 1/2/4-bit grey (scaled to 0..255).
  *   Pixel size from the pHYs chunk when its unit is the metre: µm/px = 10^6 / (pixels per metre).
- * - JPEG (jpeg-js): 8-bit grey or colour (baseline or progressive).
+ * - JPEG (jpeg-js): 8-bit grey or colour (baseline or progressive), turned upright by its EXIF Orientation tag.
  * - TIFF (geotiff): 8 or 16 bit unsigned, grey / RGB / palette, every page (IFD) one entry of `pages`, strips
  *   or tiles, uncompressed / LZW / Deflate / PackBits. Pixel size from OME-XML PhysicalSizeX in the
  *   ImageDescription when present, else from XResolution with ResolutionUnit 2 (inch) or 3 (cm).
@@ -31,9 +32,9 @@ export interface DecodeOptions {
  * stay 16-bit (Uint16Array, bitDepth 16).
  * The header's width x height is checked before any pixel is decoded, so an oversized file allocates nothing.
  *
- * `umPerPx` is the pixel size in x. When the file gives x and y sizes that differ by more than 1 %
- * (non-square pixels) the x size is still returned and decoding does not fail; lengths measured along y
- * would then be off by that ratio, which the caller may report.
+ * Whether the file's pixel size is a calibration is decided by {@link filePixelSize}: a round screen or print
+ * resolution (72, 96, 300 dpi ...) without microscope metadata gives `umPerPx` null and a `pixelSizeNotice`;
+ * x and y sizes that differ by more than 1 % (non-square pixels) are refused.
  *
  * @param bytes - the whole file
  * @param opts - `name` for messages; `maxPixels` to lower or raise the size limit
@@ -43,6 +44,7 @@ export interface DecodeOptions {
  *   names it, e.g. the TIFF compression code, float or 32-bit samples)
  * @throws ImageTooSmallError - a side below 16 px
  * @throws ImageTooLargeError - width x height above the limit
+ * @throws CalibrationError - the file's pixels are not square
  */
 export async function decodeImage(bytes: Uint8Array, opts: DecodeOptions = {}): Promise<DecodedImage> {
   const { name } = opts;
@@ -50,13 +52,19 @@ export async function decodeImage(bytes: Uint8Array, opts: DecodeOptions = {}): 
   const format = detectFormat(bytes, name);
   if (format === 'png') {
     const r = decodePngRaster(bytes, maxPixels, name);
-    return { format, pages: [toGrey(r.image)], umPerPx: r.umPerPx, wasColour: r.colour };
+    const px = filePixelSize({ xUm: r.umPerPx, yUm: r.umPerPxY, kind: 'resolution' }, name);
+    return { format, pages: [toGrey(r.image)], wasColour: r.colour, ...withNotice(px) };
   }
   if (format === 'jpeg') {
     const r = decodeJpegRaster(bytes, maxPixels, name);
     return { format, pages: [toGrey(r.image)], umPerPx: null, wasColour: r.colour };
   }
   const r = await decodeTiffRaster(bytes, maxPixels, name);
+  const px = filePixelSize({ xUm: r.umPerPx, yUm: r.umPerPxY, kind: r.pixelSizeKind }, name);
   const pages: GreyImage[] = r.pages.map(toGrey);
-  return { format, pages, umPerPx: r.umPerPx, wasColour: r.colour };
+  return { format, pages, wasColour: r.colour, ...withNotice(px) };
+}
+
+function withNotice(px: ReturnType<typeof filePixelSize>): Pick<DecodedImage, 'umPerPx' | 'pixelSizeNotice'> {
+  return px.notice === null ? { umPerPx: px.umPerPx } : { umPerPx: px.umPerPx, pixelSizeNotice: px.notice };
 }

@@ -2,6 +2,7 @@ import jpegJs from 'jpeg-js';
 import { ImageDecodeError, UnsupportedFormatError } from '../errors';
 import { checkDimensions, namePrefix } from './limits';
 import type { InterleavedImage } from './grey';
+import { exifOrientation, orientUpright } from './orient';
 
 /** What the JPEG frame header (SOFn) says. */
 export interface JpegHeader {
@@ -15,6 +16,8 @@ export interface JpegHeader {
   sof: number;
   /** Bytes of entropy-coded data in all the scans (restart markers included). */
   scanBytes: number;
+  /** EXIF Orientation (1..8) of the first APP1 Exif segment; 1 (as stored) without one. */
+  orientation: number;
 }
 
 /** A decoded JPEG before conversion to grey. */
@@ -44,6 +47,7 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
     new ImageDecodeError(`${p}the JPEG file is truncated (it ends before its end-of-image marker); copy or export it again`);
   let header: JpegHeader | null = null;
   let scanBytes = 0;
+  let orientation: number | null = null;
   let at = 2;
   for (;;) {
     while (at < bytes.length && bytes[at] === 0xff && bytes[at + 1] === 0xff) at++; // fill bytes
@@ -66,7 +70,11 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
         components: bytes[at + 9]!,
         sof: marker,
         scanBytes: 0,
+        orientation: 1,
       };
+    }
+    if (marker === 0xe1 && orientation === null && length >= 16 && bytes[at + 4] === 0x45) {
+      orientation = exifOrientation(bytes.subarray(at + 4, at + 2 + length));
     }
     at += 2 + length;
     if (marker === 0xda) {
@@ -87,13 +95,15 @@ export function readJpegHeader(bytes: Uint8Array, name?: string): JpegHeader {
     throw new ImageDecodeError(`${p}the JPEG file has no frame header; re-save it`);
   }
   header.scanBytes = scanBytes;
+  header.orientation = orientation ?? 1;
   return header;
 }
 
 /**
  * Decodes an 8-bit JPEG (grey or colour) with jpeg-js, after checking the header size
  * ({@link checkDimensions}) so an oversized file allocates nothing. Colour is converted to RGB by jpeg-js;
- * the caller makes it grey.
+ * the caller makes it grey. An EXIF Orientation tag is applied ({@link orientUpright}), so the image is
+ * upright as viewers show it (width and height swap for orientations 5 to 8).
  *
  * @param bytes - the whole file
  * @param maxPixels - limit on width x height
@@ -144,7 +154,7 @@ export function decodeJpegRaster(bytes: Uint8Array, maxPixels: number, name?: st
     // jpeg-js replicates a grey component into R, G and B; keep one.
     const grey = new Uint8Array(width * height);
     for (let i = 0; i < grey.length; i++) grey[i] = data[3 * i]!;
-    return { image: { width, height, data: grey, channels: 1, bitDepth: 8 }, colour: false };
+    return { image: orientUpright({ width, height, data: grey, channels: 1, bitDepth: 8 }, header.orientation), colour: false };
   }
-  return { image: { width, height, data, channels: 3, bitDepth: 8 }, colour: true };
+  return { image: orientUpright({ width, height, data, channels: 3, bitDepth: 8 }, header.orientation), colour: true };
 }

@@ -22,8 +22,10 @@ export interface PngRaster {
   image: InterleavedImage;
   /** Whether the stored colours are not all grey (palette PNGs with only grey entries count as grey). */
   colour: boolean;
-  /** µm per pixel from the pHYs chunk when its unit is the metre, else null. */
+  /** µm per pixel in x from the pHYs chunk when its unit is the metre, else null. */
   umPerPx: number | null;
+  /** µm per pixel in y from the same chunk, else null. */
+  umPerPxY: number | null;
 }
 
 const textAscii = (b: Uint8Array, at: number) =>
@@ -182,8 +184,9 @@ export function decodePngRaster(bytes: Uint8Array, maxPixels: number, name?: str
   } catch (e) {
     throw pngError(p, e);
   }
-  const umPerPx =
-    png.resolution && png.resolution.unit === 1 && png.resolution.x > 0 ? 1e6 / png.resolution.x : null;
+  const res = png.resolution && png.resolution.unit === 1 ? png.resolution : null;
+  const umPerPx = res && res.x > 0 ? 1e6 / res.x : null;
+  const umPerPxY = res && res.y > 0 ? 1e6 / res.y : null;
   const { width, height } = png;
 
   if (png.palette) {
@@ -199,12 +202,12 @@ export function decodePngRaster(bytes: Uint8Array, maxPixels: number, name?: str
     }
     const channels = palette[0]!.length as 3 | 4;
     const colour = palette.some((c) => c[0] !== c[1] || c[1] !== c[2]);
-    return { image: { width, height, data: rgb, channels, bitDepth: 8 }, colour, umPerPx };
+    return { image: { width, height, data: rgb, channels, bitDepth: 8 }, colour, umPerPx, umPerPxY };
   }
   const channels = png.channels;
   if (channels < 1 || channels > 4) throw new UnsupportedFormatError(`${p}PNG with ${channels} channels is not supported; re-save as grey or RGB`);
   if (png.depth < 8) {
-    return { image: { width, height, data: unpackLowDepthGrey(png), channels: 1, bitDepth: 8 }, colour: false, umPerPx };
+    return { image: { width, height, data: unpackLowDepthGrey(png), channels: 1, bitDepth: 8 }, colour: false, umPerPx, umPerPxY };
   }
   const bitDepth = png.depth === 16 ? 16 : 8;
   const data = bitDepth === 16 ? (png.data as Uint16Array) : toUint8(png.data);
@@ -216,6 +219,7 @@ export function decodePngRaster(bytes: Uint8Array, maxPixels: number, name?: str
     image: { width, height, data, channels: channels as 1 | 2 | 3 | 4, bitDepth },
     colour: channels >= 3,
     umPerPx,
+    umPerPxY,
   };
 }
 

@@ -22,8 +22,10 @@ export interface TiffRaster {
   colour: boolean;
   /** µm per pixel in x: OME-XML PhysicalSizeX if present, else the resolution tags, else null. */
   umPerPx: number | null;
-  /** µm per pixel in y from the same source, for the anisotropy note; null when unknown. */
+  /** µm per pixel in y from the same source; null when unknown. */
   umPerPxY: number | null;
+  /** Where the sizes come from: 'microscope' (OME-XML PhysicalSizeX/Y) or 'resolution' (XResolution/YResolution). */
+  pixelSizeKind: 'microscope' | 'resolution';
 }
 
 /** TIFF compression codes (TIFF 6.0 tag 259 and registered extensions) that the decoder reads. */
@@ -289,14 +291,14 @@ export async function decodeTiffRaster(bytes: Uint8Array, maxPixels: number, nam
  * The pixel size a page's tags give: OME-XML PhysicalSizeX/Y in the ImageDescription when present, else the
  * resolution tags. Damaged tags give no pixel size rather than an error: the pixels are still good.
  */
-async function pixelSize(image: GeoTIFFImage): Promise<{ umPerPx: number | null; umPerPxY: number | null }> {
+async function pixelSize(image: GeoTIFFImage): Promise<Pick<TiffRaster, 'umPerPx' | 'umPerPxY' | 'pixelSizeKind'>> {
   try {
     const description = await tag(image, 'ImageDescription');
     const ome = typeof description === 'string' ? readOmePixelSize(description) : null;
-    if (ome && ome.xUm !== null) return { umPerPx: ome.xUm, umPerPxY: ome.yUm };
+    if (ome && ome.xUm !== null) return { umPerPx: ome.xUm, umPerPxY: ome.yUm, pixelSizeKind: 'microscope' };
     const res = await resolutionUm(image);
-    return { umPerPx: res.x, umPerPxY: res.y };
+    return { umPerPx: res.x, umPerPxY: res.y, pixelSizeKind: 'resolution' };
   } catch {
-    return { umPerPx: null, umPerPxY: null };
+    return { umPerPx: null, umPerPxY: null, pixelSizeKind: 'resolution' };
   }
 }

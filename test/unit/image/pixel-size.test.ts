@@ -19,10 +19,12 @@ describe('pixel size from TIFF resolution tags', () => {
   it('no resolution tags -> null', async () => {
     expect((await decodeImage(fixture('grey8-none.tif'))).umPerPx).toBeNull();
   });
-  it('X and Y differ (10 vs 20 µm/px): X is returned and decoding does not fail', async () => {
-    const d = await decodeImage(fixture('res-anisotropic.tif'));
-    expect(d.umPerPx).toBeCloseTo(10, 12);
-    expect(d.pages).toHaveLength(1);
+  it('X and Y differ (10 vs 20 µm/px): refused, saying to resample to square pixels', async () => {
+    const d = decodeImage(fixture('res-anisotropic.tif'), { name: 'aniso.tif' });
+    await expect(d).rejects.toThrow(CalibrationError);
+    await expect(decodeImage(fixture('res-anisotropic.tif'), { name: 'aniso.tif' })).rejects.toThrow(
+      /^aniso\.tif: the file's pixels are not square \(10 µm wide, 20 µm high\); resample the image to square pixels/,
+    );
   });
 });
 
