@@ -6,13 +6,14 @@
  * one palette with a legend on the Bench and in the exports. Images come from the project's generator.
  */
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
 import type { PreviewServer } from 'vite';
 import { SCREENSHOTS, launch, serveApp, screenshotsAt } from './harness';
 import { wallsPng, type Fixture } from './fixtures';
+import { withPhys } from '../unit/image/handmade';
 import { GRAIN_COLOURS, LAYER_COLOURS } from '../../src/core/export/palette';
 
 let server: PreviewServer;
@@ -213,6 +214,20 @@ describe('defects a new user hit', () => {
     expect(html).toMatch(/aria-label="legend"/);
     await popup.close();
     await shots('grain-view');
+    expect(pageErrors).toEqual([]);
+  });
+
+  it('a PNG saved at 72 dpi is not calibrated, and the Scale panel says why and how to confirm a true size', async () => {
+    // 2835 px per metre = 72 dpi, a screen setting (PNG specification, pHYs; 72 dpi = 352.8 µm/px, derived).
+    const f = wallsPng(120, 400, 300, 41, work);
+    const path = join(work, 'screen-72dpi.png');
+    writeFileSync(path, withPhys(f.bytes, 2835, 2835));
+    await page.getByTestId('file-input').setInputFiles(path);
+    await settledAll();
+    await selectEntry('screen-72dpi.png');
+    await page.getByRole('tab', { name: 'Scale' }).click();
+    await expect.poll(() => page.getByTestId('calibration').textContent()).toMatch(/Uncalibrated/);
+    expect(await page.getByTestId('calibration-notice').textContent()).toMatch(/72 dpi .*not a calibration/);
     expect(pageErrors).toEqual([]);
   });
 });
