@@ -3,24 +3,7 @@
  * TIFF 6.0 (Adobe 1992) and JPEG (ITU-T T.81) describe them.
  */
 
-import { crc32 } from '../../../src/core/image/phys';
-
-function pngChunk(type: string, data: Uint8Array): Uint8Array {
-  const out = new Uint8Array(12 + data.length);
-  const v = new DataView(out.buffer);
-  v.setUint32(0, data.length);
-  for (let i = 0; i < 4; i++) out[4 + i] = type.charCodeAt(i);
-  out.set(data, 8);
-  v.setUint32(8 + data.length, crc32(out.subarray(4, 8 + data.length)));
-  return out;
-}
-
-function concat(parts: Uint8Array[]): Uint8Array {
-  const out = new Uint8Array(parts.reduce((s, p) => s + p.length, 0));
-  let at = 0;
-  for (const p of parts) { out.set(p, at); at += p.length; }
-  return out;
-}
+import { concat, pngChunk } from '../hostile/craft';
 
 /** A PNG that is only a signature, an IHDR claiming width x height 8-bit grey, and IEND: no pixel data. */
 export function pngHeaderOnly(width: number, height: number): Uint8Array {
