@@ -24,7 +24,7 @@ import { buildSummary, type CalibrationSource, type EventsSummary, type GrainSiz
 import { tessellate } from './tessellate/index';
 import type { Tessellation } from './tessellate/types';
 import type { Columns, GreyImage, LabelImage, Progress, Rect } from './types';
-import { anisotropy, type Anisotropy } from './stats/anisotropy';
+import { anisotropy, stretchedField, type Anisotropy } from './stats/anisotropy';
 import { hasPixel, maskGeometry, type MaskGeometry } from './mask/geometry';
 import { maskLabels, maskTessellation } from './mask/observe';
 
@@ -274,8 +274,7 @@ async function measureLabels(
     if (geom && aniso.spacing === 'stretched') aniso = { ...aniso, spacing: 'left out', stretch: null };
     if (aniso.spacing === 'stretched' && reference) {
       reference.cancel();
-      const s = aniso.stretch!;
-      reference = startReferenceFor(settings, n, { x0: field.x0 * s.sx, y0: field.y0 * s.sy, x1: field.x1 * s.sx, y1: field.y1 * s.sy }, segment?.minCellAreaPx, opts);
+      reference = startReferenceFor(settings, n, stretchedField(field, aniso.stretch), segment?.minCellAreaPx, opts);
     }
     await reference?.tick();
     // Grain size before the statistics, so that it runs while the pool is drawing the reference.

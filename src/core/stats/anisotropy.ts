@@ -5,6 +5,7 @@
  * axis, which reads as clustering. When the cells are aligned and elongated, those statistics are computed in
  * the stretched frame instead, and the reference is drawn in the stretched field.
  */
+import type { Rect } from '../types';
 
 /** Below this mean-cell aspect ratio the cells count as isotropic enough (trade). */
 export const MIN_ASPECT_FOR_STRETCH = 1.2;
@@ -97,7 +98,12 @@ export function anisotropy(major: ArrayLike<number>, minor: ArrayLike<number>, o
   return { ...out, spacing: 'stretched', stretch: along === 'x' ? { sx: shrink, sy: grow } : { sx: grow, sy: shrink } };
 }
 
-/** Points (interleaved x, y) and a field scaled by a stretch. */
+/** The field scaled by a stretch (the field itself without one). */
+export function stretchedField(f: Rect, s: { sx: number; sy: number } | null): Rect {
+  return s ? { x0: f.x0 * s.sx, y0: f.y0 * s.sy, x1: f.x1 * s.sx, y1: f.y1 * s.sy } : f;
+}
+
+/** Points (interleaved x, y) scaled by a stretch. */
 export function stretchPoints(points: Float64Array, s: { sx: number; sy: number }): Float64Array {
   const out = new Float64Array(points.length);
   for (let i = 0; i < points.length; i += 2) {

@@ -14,7 +14,7 @@ import { STATISTICS, type PatternCurves, type PatternFigures, type StatisticKey 
 import { chiSquareUpper, gammaPdf, normalTwoSided } from './dist';
 import { largestGap, type LargestGap } from './gap';
 import { assessQuality, type Quality } from './quality';
-import { stretchPoints, type Anisotropy } from './anisotropy';
+import { stretchedField, stretchPoints, type Anisotropy } from './anisotropy';
 import { voronoiLikeness, type VoronoiLikeness } from './likeness';
 import { combinedMaxZ, monteCarloP } from './mctest';
 import { hasPixel, type MaskGeometry } from '../mask/geometry';
@@ -177,11 +177,6 @@ type JsonFit = { slope: number | null; intercept: number | null; r2: number | nu
 const num = (v: number | undefined | null): number | null => (v !== undefined && v !== null && Number.isFinite(v) ? v : null);
 const list = (a: ArrayLike<number>): (number | null)[] => Array.from(a, (v) => num(v));
 const fitJson = (f: LineFit): JsonFit => ({ slope: num(f.slope), intercept: num(f.intercept), r2: num(f.r2) });
-
-/** The field scaled by a stretch (the field itself without one). */
-function stretchedField(f: Rect, s: { sx: number; sy: number } | null): Rect {
-  return s ? { x0: f.x0 * s.sx, y0: f.y0 * s.sy, x1: f.x1 * s.sx, y1: f.y1 * s.sy } : f;
-}
 
 /** Number of the sample's cells with n sides, n = 0..MAX_SIDES (the last bin holds MAX_SIDES or more). */
 function sideCounts(sides: Int32Array, s: CellSample): number[] {
